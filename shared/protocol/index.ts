@@ -1,0 +1,4 @@
+export * from './checksum';
+export * from './line-reader';
+export * from './messages';
+export * from './decoder';
