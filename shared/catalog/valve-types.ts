@@ -238,10 +238,11 @@ export function hasScreen(c: ValveClass): boolean {
 export function defaultPlan(t: ValveTypeData): SweepPlan {
   const op = t.operatingPoints[0];
   const vaStop = Math.min(t.ratings.vaMaxVolts, 400);
-  const curves = 10;
   const gridSpan = Math.max(2 * Math.abs(op.vg1Volts), 2);
-  const step = niceStep(gridSpan / (curves - 1));
-  const vg1Volts = Array.from({ length: curves }, (_, i) => round2(-i * step));
+  const step = niceStep(gridSpan / 9);
+  const curves = Math.min(12, Math.floor(gridSpan / step + 1e-9) + 1);
+  // Grid supplies of home-built tracers commonly reach -100 V; deeper curves are left out.
+  const vg1Volts = Array.from({ length: curves }, (_, i) => round2(-i * step)).filter((v) => v >= -100);
   const paMax = round2(t.ratings.paMaxWatts * 0.75);
   const iaMax = Math.min(round2(Math.max(op.iaMilliamps * 2.5, (paMax * 1000) / vaStop)), 250);
   return {
@@ -276,7 +277,7 @@ export function limitsFromType(t: ValveTypeData): PlanLimits {
 function niceStep(x: number): number {
   const e = Math.pow(10, Math.floor(Math.log10(x)));
   const m = x / e;
-  const nice = m <= 1 ? 1 : m <= 2 ? 2 : m <= 2.5 ? 2.5 : m <= 5 ? 5 : 10;
+  const nice = [1, 2, 2.5, 5, 10].reduce((best, c) => (Math.abs(c - m) < Math.abs(best - m) ? c : best));
   return round2(nice * e);
 }
 

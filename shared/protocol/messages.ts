@@ -71,8 +71,9 @@ const ERROR_CODES = new Set(['E10', 'E11', 'E12', 'E20', 'E21', 'E30', 'E31', 'E
 
 /** Formats a number for the wire: fixed decimals, no exponent, no negative zero. */
 export function num(x: number, decimals = 3): string {
-  const s = x.toFixed(decimals).replace(/\.?0+$/, '');
-  return s === '-0' || s === '' ? '0' : s;
+  let s = x.toFixed(decimals);
+  if (s.includes('.')) s = s.replace(/0+$/, '').replace(/\.$/, '');
+  return s === '-0' ? '0' : s;
 }
 
 /** Makes free text safe for a field: no separators, no framing characters, printable ASCII. */
