@@ -82,6 +82,8 @@ export interface SweepView {
   endMessage: string | null;
   /** Number of points stored. */
   pointCount: number;
+  /** Number of points the tracer reported sending (from its end-of-sweep line), or null. */
+  deviceCount: number | null;
   /** Who started it (user name). */
   operator: string;
   /** ISO times. */
