@@ -62,6 +62,22 @@ export interface BenchView {
   capabilities: DeviceCapabilities | null;
   /** Latest device status, or null if never connected. */
   status: BenchDeviceStatus | null;
+  /** Limits an admin set for this bench (the hub sends them; optional for older senders). */
+  limits?: BenchLimits;
+  /** ISO time the bridge was last heard from, or null if never (optional for older senders). */
+  lastSeenAt?: string | null;
+}
+
+/** Limits an admin sets per bench, on top of the device's own and the valve type's ratings. */
+export interface BenchLimits {
+  /** Maximum anode voltage, V. */
+  vaMaxVolts: number;
+  /** Maximum screen voltage, V. */
+  vg2MaxVolts: number;
+  /** Maximum anode current, mA (also bounds the trip current). */
+  iaMaxMilliamps: number;
+  /** Maximum anode dissipation, W. */
+  paMaxWatts: number;
 }
 
 /** Summary of a sweep as browsers see it. */
