@@ -1,0 +1,35 @@
+import type { Routes } from '@angular/router';
+import { authGuard } from './core/auth-guard';
+
+/** Every page loads lazily; the shell wraps the signed-in ones. */
+export const appRoutes: Routes = [
+  {
+    path: 'sign-in',
+    title: 'Sign in · Emberline',
+    loadComponent: () => import('./sign-in/sign-in').then((m) => m.SignIn),
+  },
+  {
+    path: '',
+    canActivate: [authGuard],
+    loadComponent: () => import('./shell/shell').then((m) => m.Shell),
+    children: [
+      { path: '', pathMatch: 'full', redirectTo: 'bench' },
+      {
+        path: 'bench',
+        title: 'Bench · Emberline',
+        loadComponent: () => import('./bench/bench-page').then((m) => m.BenchPage),
+      },
+      {
+        path: 'sweeps',
+        title: 'Sweeps · Emberline',
+        loadComponent: () => import('./sweeps/sweep-list').then((m) => m.SweepList),
+      },
+      {
+        path: 'sweeps/:id',
+        title: 'Sweep · Emberline',
+        loadComponent: () => import('./sweeps/sweep-detail').then((m) => m.SweepDetail),
+      },
+    ],
+  },
+  { path: '**', redirectTo: '' },
+];

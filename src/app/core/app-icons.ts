@@ -1,0 +1,40 @@
+import { inject, provideAppInitializer, type EnvironmentProviders } from '@angular/core';
+import { MatIconRegistry } from '@angular/material/icon';
+import { DomSanitizer } from '@angular/platform-browser';
+
+/**
+ * The Material Symbols (outlined, weight 400) the app uses. angular.json copies exactly these
+ * files from @material-symbols/svg-400 into /icons, so no icon is fetched from elsewhere.
+ */
+export const APP_ICONS = [
+  'arrow_back',
+  'bolt',
+  'cable',
+  'check_circle',
+  'dark_mode',
+  'download',
+  'error',
+  'light_mode',
+  'link_off',
+  'local_fire_department',
+  'logout',
+  'menu',
+  'monitoring',
+  'play_arrow',
+  'search',
+  'stop_circle',
+  'table_rows',
+  'timer',
+  'warning',
+] as const;
+
+/** Registers APP_ICONS with MatIconRegistry under their Material Symbols names. */
+export function provideAppIcons(): EnvironmentProviders {
+  return provideAppInitializer(() => {
+    const registry = inject(MatIconRegistry);
+    const sanitizer = inject(DomSanitizer);
+    for (const name of APP_ICONS) {
+      registry.addSvgIcon(name, sanitizer.bypassSecurityTrustResourceUrl(`icons/${name}.svg`));
+    }
+  });
+}

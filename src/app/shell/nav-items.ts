@@ -1,0 +1,18 @@
+import type { Role } from '../core/auth';
+
+/** An entry of the side navigation. */
+export interface NavItem {
+  path: string;
+  label: string;
+  icon: string;
+  /** Roles that see the entry. */
+  roles: readonly Role[];
+}
+
+const EVERYONE: readonly Role[] = ['admin', 'technician', 'viewer'];
+
+/** The side navigation; entries a role may not use are not shown to it at all. */
+export const NAV_ITEMS: readonly NavItem[] = [
+  { path: '/bench', label: 'Bench', icon: 'monitoring', roles: EVERYONE },
+  { path: '/sweeps', label: 'Sweeps', icon: 'table_rows', roles: EVERYONE },
+];
