@@ -17,7 +17,6 @@ function koren12ax7Milliamps(va: number, vg: number): number {
   return e1 > 0 ? ((2 * Math.pow(e1, ex)) / kg1) * 1000 : 0;
 }
 
-const WARM_MS = 30_000;
 
 function sweepDurationMs(plan: SweepPlan): number {
   return plan.warmupSeconds * 1000 + plannedPointCount(plan) * (plan.settleMs + CONVERSION_MS + 25);
