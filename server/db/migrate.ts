@@ -1,0 +1,41 @@
+import { Migrator, type Migration, type MigrationProvider, type MigrationResultSet } from 'kysely';
+import * as initial from '../../migrations/2026-12-01-initial';
+import { loadConfig } from '../config';
+import { isEntryPoint } from '../is-entry-point';
+import { openDatabase, type HubDb } from './database';
+
+/** Every migration by name; names sort in the order they run. Static, so tsx and Vitest agree. */
+const MIGRATIONS: Record<string, Migration> = {
+  '2026-12-01-initial': initial,
+};
+
+const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };
+
+/** Runs every pending migration; throws (after logging what ran) if one fails. */
+export async function migrateToLatest(db: HubDb): Promise<MigrationResultSet> {
+  const migrator = new Migrator({ db, provider });
+  const result = await migrator.migrateToLatest();
+  if (result.error) {
+    const failed = result.results?.find((r) => r.status === 'Error')?.migrationName ?? 'unknown';
+    throw new Error(`migration ${failed} failed: ${String(result.error)}`, {
+      cause: result.error,
+    });
+  }
+  return result;
+}
+
+if (isEntryPoint(import.meta.url)) {
+  const config = loadConfig();
+  const db = openDatabase(config.databaseFile);
+  migrateToLatest(db)
+    .then(async (result) => {
+      for (const r of result.results ?? []) console.log(`${r.status}: ${r.migrationName}`);
+      if (!result.results?.length) console.log('database is up to date');
+      await db.destroy();
+    })
+    .catch(async (error: unknown) => {
+      console.error(error instanceof Error ? error.message : error);
+      await db.destroy();
+      process.exitCode = 1;
+    });
+}

@@ -1,0 +1,25 @@
+import type { Role } from '../auth/role';
+
+/** The invented workshop the demo data belongs to. */
+export const DEMO_WORKSHOP = 'Kestrel Lane Valve Works';
+
+/** Demo sign-ins, seeded in demo mode and printed on start. */
+export const DEMO_USERS: readonly {
+  username: string;
+  password: string;
+  role: Role;
+  displayName: string;
+}[] = [
+  { username: 'admin', password: 'ember-admin', role: 'admin', displayName: 'Workshop admin' },
+  { username: 'tech', password: 'ember-tech', role: 'technician', displayName: 'Bench technician' },
+  { username: 'viewer', password: 'ember-view', role: 'viewer', displayName: 'Visitor' },
+];
+
+/**
+ * Demo benches with fixed tokens, so the stack can start bridges for them. `valve` is what the
+ * simulator of that bench holds (TYPE#SEED).
+ */
+export const DEMO_BENCHES: readonly { name: string; token: string; valve: string }[] = [
+  { name: 'Bench A', token: 'demo-bench-a-7f3c9e', valve: '12AX7#1' },
+  { name: 'Bench B', token: 'demo-bench-b-2d81aa', valve: 'EL34#4' },
+];

@@ -1,0 +1,57 @@
+import { createAuditService } from './audit/audit.service';
+import { createAuthService } from './auth/auth.service';
+import { createBenchService } from './benches/bench.service';
+import type { HubConfig } from './config';
+import type { HubDb } from './db/database';
+import type { Logger } from './http/error-middleware';
+import { BenchPresence } from './live/bench-presence';
+import { BrowserFanout, type BrowserFanoutProps } from './live/browser-fanout';
+import { createSweepRecorder } from './sweeps/sweep-recorder';
+import { createSweepService } from './sweeps/sweep.service';
+
+/** Settings the services take from the configuration. */
+export type ServiceConfig = Pick<
+  HubConfig,
+  'jwtSecret' | 'jwtLifetimeSeconds' | 'linkGraceMs' | 'startTimeoutMs'
+>;
+
+/** Every service of the hub, wired together. */
+export type HubServices = ReturnType<typeof createHubServices>;
+
+/**
+ * Wires the services. The browser fan-out is the services' event sink, so REST changes and
+ * bridge reports reach browsers the same way. Needs no listening server (supertest can use it).
+ */
+export function createHubServices(
+  db: HubDb,
+  config: ServiceConfig,
+  logger: Logger,
+  fanoutOptions: Pick<
+    BrowserFanoutProps,
+    'watchOptions' | 'closeAboveBytes' | 'benchesDelayMs'
+  > = {},
+) {
+  const presence = new BenchPresence();
+  const audit = createAuditService({ db });
+  const auth = createAuthService({ db, audit, ...config });
+  const browsers: BrowserFanout = new BrowserFanout({
+    logger,
+    ...fanoutOptions,
+    listBenches: () => benches.list(),
+    sweepView: (id) => sweeps.view(id),
+    loadPoints: (id, fromSeq) => sweeps.points(id, fromSeq),
+    abortSweep: (id, user) => sweeps.abort(id, user),
+  });
+  const events = browsers;
+  const benches = createBenchService({ db, presence, audit, events });
+  const recorder = createSweepRecorder({
+    db,
+    presence,
+    events,
+    logger,
+    linkGraceMs: config.linkGraceMs,
+    startTimeoutMs: config.startTimeoutMs,
+  });
+  const sweeps = createSweepService({ db, presence, benches, recorder, audit, events });
+  return { db, logger, presence, audit, auth, benches, recorder, sweeps, browsers, events };
+}
