@@ -1,0 +1,13 @@
+import { createServer } from 'node:net';
+
+/** Asks the OS for a free TCP port on 127.0.0.1 (for processes that must keep one port across restarts). */
+export function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const server = createServer();
+    server.once('error', reject);
+    server.listen(0, '127.0.0.1', () => {
+      const address = server.address();
+      server.close(() => resolve(typeof address === 'object' && address ? address.port : 0));
+    });
+  });
+}
