@@ -1,4 +1,14 @@
 import type { DeviceCapabilities, SweepEndReason, SweepPlan } from '../domain/sweep';
+import {
+  CHECK_FEATURES,
+  ELECTRODE_PAIRS,
+  type CheckFeature,
+  type DeviceExtensions,
+  type ElectrodePair,
+  type EmissionCheckPlan,
+  type GridCurrentCheckPlan,
+  type LeakageCheckPlan,
+} from './check-plan';
 
 /** Version of the wire protocol described in PROTOCOL.md. */
 export const PROTOCOL_VERSION = 1;
@@ -12,7 +22,15 @@ export type HostCommand =
   | { type: 'sweep'; sweepId: number; plan: SweepPlan }
   | { type: 'abort'; sweepId: number }
   | { type: 'off' }
-  | { type: 'zero' };
+  | { type: 'zero' }
+  /** Optional extension: asks which optional functions the tracer has (EXT). */
+  | { type: 'extensions' }
+  /** Optional extension: leakage and shorts check (LKG). */
+  | { type: 'leakage'; checkId: number; plan: Omit<LeakageCheckPlan, 'kind'> }
+  /** Optional extension: emission check, grids strapped to the anode (EMI). */
+  | { type: 'emission'; checkId: number; plan: Omit<EmissionCheckPlan, 'kind'> }
+  /** Optional extension: grid-current (gas) check at an operating point (GAS). */
+  | { type: 'grid-current'; checkId: number; plan: Omit<GridCurrentCheckPlan, 'kind'> };
 
 /** Operating state reported by the tracer. */
 export type DeviceState = 'idle' | 'warming' | 'sweeping' | 'fault';
@@ -55,7 +73,31 @@ export type DeviceMessage =
       highVoltage: boolean;
       warmupLeftSeconds: number;
     }
-  | { type: 'zeroed'; iaOffsetMilliamps: number; ig2OffsetMilliamps: number };
+  | { type: 'zeroed'; iaOffsetMilliamps: number; ig2OffsetMilliamps: number }
+  /** Optional extension: answer to EXT. */
+  | { type: 'extensions'; extensions: DeviceExtensions }
+  /** Optional extension: one pair of a leakage check (LK); current in uA. */
+  | {
+      type: 'leakage';
+      checkId: number;
+      pair: ElectrodePair;
+      volts: number;
+      microamps: number;
+      overRange: boolean;
+    }
+  /** Optional extension: the reading of an emission check (EM). */
+  | { type: 'emission'; checkId: number; vaVolts: number; milliamps: number; overRange: boolean }
+  /** Optional extension: the reading of a grid-current check (GC); grid current in uA. */
+  | {
+      type: 'grid-current';
+      checkId: number;
+      vaVolts: number;
+      vg1Volts: number;
+      vg2Volts: number;
+      iaMilliamps: number;
+      ig1Microamps: number;
+      gridKiloohms: number;
+    };
 
 const END_CODES: Record<SweepEndReason, string> = {
   complete: 'DONE',
@@ -67,6 +109,30 @@ const END_CODES: Record<SweepEndReason, string> = {
 const END_REASONS = Object.fromEntries(Object.entries(END_CODES).map(([k, v]) => [v, k])) as Record<string, SweepEndReason>;
 const STATE_CODES: Record<DeviceState, string> = { idle: 'IDLE', warming: 'WARM', sweeping: 'SWEEP', fault: 'FAULT' };
 const STATES = Object.fromEntries(Object.entries(STATE_CODES).map(([k, v]) => [v, k])) as Record<string, DeviceState>;
+const PAIR_CODES: Record<ElectrodePair, string> = {
+  'heater-cathode': 'HK',
+  'grid1-cathode': 'G1K',
+  'grid1-anode': 'G1A',
+  'anode-cathode': 'AK',
+  'screen-cathode': 'G2K',
+  'screen-grid1': 'G2G1',
+  'screen-anode': 'G2A',
+};
+const PAIRS = Object.fromEntries(ELECTRODE_PAIRS.map((p) => [PAIR_CODES[p], p])) as Record<
+  string,
+  ElectrodePair
+>;
+const FEATURE_CODES: Record<CheckFeature, string> = {
+  leakage: 'LKG',
+  emission: 'EMI',
+  'grid-current': 'GAS',
+};
+const FEATURES = Object.fromEntries(CHECK_FEATURES.map((f) => [FEATURE_CODES[f], f])) as Record<
+  string,
+  CheckFeature
+>;
+/** Most pairs one LKG line may list. */
+export const MAX_LEAKAGE_PAIRS = ELECTRODE_PAIRS.length;
 const ERROR_CODES = new Set(['E10', 'E11', 'E12', 'E20', 'E21', 'E30', 'E31', 'E40']);
 
 /** Formats a number for the wire: fixed decimals, no exponent, no negative zero. */
@@ -117,6 +183,48 @@ export function encodeCommand(c: HostCommand): string {
       return 'OFF';
     case 'zero':
       return 'ZRO';
+    case 'extensions':
+      return 'EXT';
+    case 'leakage': {
+      const p = c.plan;
+      return [
+        'LKG',
+        c.checkId,
+        num(p.heaterVolts, 2),
+        num(p.warmupSeconds, 0),
+        num(p.settleMs, 0),
+        p.pairs.map((x) => PAIR_CODES[x.pair]).join(';'),
+        p.pairs.map((x) => num(x.volts, 1)).join(';'),
+      ].join(',');
+    }
+    case 'emission': {
+      const p = c.plan;
+      return [
+        'EMI',
+        c.checkId,
+        num(p.vaVolts, 2),
+        num(p.heaterVolts, 2),
+        num(p.iaTripMilliamps, 2),
+        num(p.paMaxWatts, 2),
+        num(p.warmupSeconds, 0),
+        num(p.settleMs, 0),
+      ].join(',');
+    }
+    case 'grid-current': {
+      const p = c.plan;
+      return [
+        'GAS',
+        c.checkId,
+        num(p.vaVolts, 2),
+        num(p.vg1Volts, 2),
+        num(p.vg2Volts, 2),
+        num(p.heaterVolts, 2),
+        num(p.iaTripMilliamps, 2),
+        num(p.paMaxWatts, 2),
+        num(p.warmupSeconds, 0),
+        num(p.settleMs, 0),
+      ].join(',');
+    }
   }
 }
 
@@ -164,6 +272,39 @@ export function encodeDeviceMessage(m: DeviceMessage): string {
       return ['HB', m.uptimeMs, STATE_CODES[m.state], num(m.heaterVolts, 2), m.highVoltage ? 1 : 0, num(m.warmupLeftSeconds, 0)].join(',');
     case 'zeroed':
       return `ZRO,${num(m.iaOffsetMilliamps, 4)},${num(m.ig2OffsetMilliamps, 4)}`;
+    case 'extensions': {
+      const x = m.extensions;
+      return [
+        'EXT',
+        x.features.map((f) => FEATURE_CODES[f]).join(';'),
+        num(x.gridFeedKiloohms, 1),
+        num(x.leakageMaxVolts, 1),
+      ].join(',');
+    }
+    case 'leakage':
+      return [
+        'LK',
+        m.checkId,
+        PAIR_CODES[m.pair],
+        num(m.volts, 1),
+        num(m.microamps, 4),
+        m.overRange ? 1 : 0,
+      ].join(',');
+    case 'emission':
+      return ['EM', m.checkId, num(m.vaVolts, 2), num(m.milliamps, 4), m.overRange ? 1 : 0].join(
+        ',',
+      );
+    case 'grid-current':
+      return [
+        'GC',
+        m.checkId,
+        num(m.vaVolts, 2),
+        num(m.vg1Volts, 3),
+        num(m.vg2Volts, 2),
+        num(m.iaMilliamps, 4),
+        num(m.ig1Microamps, 4),
+        num(m.gridKiloohms, 1),
+      ].join(',');
   }
 }
 
@@ -209,6 +350,54 @@ export function decodeCommand(body: string): HostCommand | null {
       case 'ZRO':
         arity(f, 1);
         return { type: 'zero' };
+      case 'EXT':
+        arity(f, 1);
+        return { type: 'extensions' };
+      case 'LKG': {
+        arity(f, 7);
+        const codes = f[5].split(';');
+        const volts = f[6].split(';').map(n);
+        if (codes.length !== volts.length || codes.length > MAX_LEAKAGE_PAIRS) {
+          throw new Error('bad pair list');
+        }
+        const pairs = codes.map((code, i) => ({ pair: pairOf(code), volts: volts[i] }));
+        if (new Set(codes).size !== codes.length) throw new Error('repeated pair');
+        return {
+          type: 'leakage',
+          checkId: int(f[1]),
+          plan: { heaterVolts: n(f[2]), warmupSeconds: n(f[3]), settleMs: n(f[4]), pairs },
+        };
+      }
+      case 'EMI':
+        arity(f, 8);
+        return {
+          type: 'emission',
+          checkId: int(f[1]),
+          plan: {
+            vaVolts: n(f[2]),
+            heaterVolts: n(f[3]),
+            iaTripMilliamps: n(f[4]),
+            paMaxWatts: n(f[5]),
+            warmupSeconds: n(f[6]),
+            settleMs: n(f[7]),
+          },
+        };
+      case 'GAS':
+        arity(f, 10);
+        return {
+          type: 'grid-current',
+          checkId: int(f[1]),
+          plan: {
+            vaVolts: n(f[2]),
+            vg1Volts: n(f[3]),
+            vg2Volts: n(f[4]),
+            heaterVolts: n(f[5]),
+            iaTripMilliamps: n(f[6]),
+            paMaxWatts: n(f[7]),
+            warmupSeconds: n(f[8]),
+            settleMs: n(f[9]),
+          },
+        };
       case 'HTR':
         arity(f, 2);
         return { type: 'heater', volts: n(f[1]) };
@@ -315,12 +504,60 @@ export function decodeDeviceMessage(body: string): DeviceMessage | null {
       case 'ZRO':
         arity(f, 3);
         return { type: 'zeroed', iaOffsetMilliamps: n(f[1]), ig2OffsetMilliamps: n(f[2]) };
+      case 'EXT': {
+        arity(f, 4);
+        // Codes this host does not know are a newer tracer's: skipped, not an error.
+        const codes = f[1] === '' ? [] : f[1].split(';');
+        if (codes.some((c) => !/^[A-Z0-9]{2,4}$/.test(c))) throw new Error('bad feature');
+        const features = [...new Set(codes.map((c) => FEATURES[c]).filter((x) => x !== undefined))];
+        return {
+          type: 'extensions',
+          extensions: { features, gridFeedKiloohms: n(f[2]), leakageMaxVolts: n(f[3]) },
+        };
+      }
+      case 'LK':
+        arity(f, 6);
+        return {
+          type: 'leakage',
+          checkId: int(f[1]),
+          pair: pairOf(f[2]),
+          volts: n(f[3]),
+          microamps: n(f[4]),
+          overRange: flag(f[5]),
+        };
+      case 'EM':
+        arity(f, 5);
+        return {
+          type: 'emission',
+          checkId: int(f[1]),
+          vaVolts: n(f[2]),
+          milliamps: n(f[3]),
+          overRange: flag(f[4]),
+        };
+      case 'GC':
+        arity(f, 8);
+        return {
+          type: 'grid-current',
+          checkId: int(f[1]),
+          vaVolts: n(f[2]),
+          vg1Volts: n(f[3]),
+          vg2Volts: n(f[4]),
+          iaMilliamps: n(f[5]),
+          ig1Microamps: n(f[6]),
+          gridKiloohms: n(f[7]),
+        };
       default:
         return null;
     }
   } catch {
     return null;
   }
+}
+
+function pairOf(code: string): ElectrodePair {
+  const pair = PAIRS[code];
+  if (!pair) throw new Error('bad pair');
+  return pair;
 }
 
 function tag(s: string): string {

@@ -1,7 +1,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { checksum, frame } from '../../../shared/protocol/checksum';
-import { DeviceStreamDecoder } from '../../../shared/protocol/decoder';
+import { CHECK_FEATURES, ELECTRODE_PAIRS } from '../../../shared/protocol/check-plan';
+import { CommandStreamDecoder, DeviceStreamDecoder } from '../../../shared/protocol/decoder';
 import { droppedCount, LineReader, MAX_LINE_BYTES } from '../../../shared/protocol/line-reader';
 import {
   decodeCommand,
@@ -42,7 +43,97 @@ const otherMessage: fc.Arbitrary<DeviceMessage> = fc.oneof(
   }),
   fc.record({ type: fc.constant('ack' as const), command: fc.constantFrom('SWP', 'HTR', 'OFF'), sweepId: fc.nat({ max: 1e6 }) }),
 );
-const message = fc.oneof({ weight: 4, arbitrary: point }, { weight: 1, arbitrary: otherMessage });
+const checkId = fc.nat({ max: 1e9 });
+const flag = fc.boolean();
+/** Messages of the optional extensions (EXT, LK, EM, GC). */
+const extensionMessage: fc.Arbitrary<DeviceMessage> = fc.oneof(
+  fc.record({
+    type: fc.constant('extensions' as const),
+    extensions: fc.record({
+      features: fc.subarray([...CHECK_FEATURES]),
+      gridFeedKiloohms: fc.integer({ min: 0, max: 100000 }).map((x) => x / 10),
+      leakageMaxVolts: fc.integer({ min: 0, max: 10000 }).map((x) => x / 10),
+    }),
+  }),
+  fc.record({
+    type: fc.constant('leakage' as const),
+    checkId,
+    pair: fc.constantFrom(...ELECTRODE_PAIRS),
+    volts: fc.integer({ min: 0, max: 2000 }).map((x) => x / 10),
+    microamps: fc.integer({ min: 0, max: 5000000 }).map((x) => x / 10000),
+    overRange: flag,
+  }),
+  fc.record({
+    type: fc.constant('emission' as const),
+    checkId,
+    vaVolts: volts.map(Math.abs),
+    milliamps,
+    overRange: flag,
+  }),
+  fc.record({
+    type: fc.constant('grid-current' as const),
+    checkId,
+    vaVolts: volts.map(Math.abs),
+    vg1Volts: fc.integer({ min: -100000, max: 0 }).map((x) => x / 1000),
+    vg2Volts: volts.map(Math.abs),
+    iaMilliamps: milliamps,
+    ig1Microamps: fc.integer({ min: -10000000, max: 10000000 }).map((x) => x / 10000),
+    gridKiloohms: fc.integer({ min: 0, max: 100000 }).map((x) => x / 10),
+  }),
+);
+const message = fc.oneof(
+  { weight: 4, arbitrary: point },
+  { weight: 1, arbitrary: otherMessage },
+  { weight: 1, arbitrary: extensionMessage },
+);
+const centivolts = (min: number, max: number) =>
+  fc.integer({ min: min * 100, max: max * 100 }).map((x) => x / 100);
+const timing = { warmupSeconds: fc.nat({ max: 600 }), settleMs: fc.nat({ max: 10000 }) };
+/** Commands of the optional extensions (EXT, LKG, EMI, GAS). */
+const extensionCommand: fc.Arbitrary<HostCommand> = fc.oneof(
+  fc.constant({ type: 'extensions' as const }),
+  fc.record({
+    type: fc.constant('leakage' as const),
+    checkId,
+    plan: fc.record({
+      heaterVolts: centivolts(0, 13.2),
+      ...timing,
+      pairs: fc
+        .shuffledSubarray([...ELECTRODE_PAIRS], { minLength: 1 })
+        .chain((pairs) =>
+          fc.tuple(
+            ...pairs.map((pair) =>
+              fc.integer({ min: 0, max: 2000 }).map((v) => ({ pair, volts: v / 10 })),
+            ),
+          ),
+        ),
+    }),
+  }),
+  fc.record({
+    type: fc.constant('emission' as const),
+    checkId,
+    plan: fc.record({
+      vaVolts: centivolts(0, 500),
+      heaterVolts: centivolts(0, 13.2),
+      iaTripMilliamps: centivolts(0, 250),
+      paMaxWatts: centivolts(0, 50),
+      ...timing,
+    }),
+  }),
+  fc.record({
+    type: fc.constant('grid-current' as const),
+    checkId,
+    plan: fc.record({
+      vaVolts: centivolts(0, 500),
+      vg1Volts: centivolts(-100, 0),
+      vg2Volts: centivolts(0, 450),
+      heaterVolts: centivolts(0, 13.2),
+      iaTripMilliamps: centivolts(0, 250),
+      paMaxWatts: centivolts(0, 50),
+      ...timing,
+    }),
+  }),
+);
 const stream = fc.array(message, { minLength: 1, maxLength: 40 });
 
 function wire(messages: DeviceMessage[]): string {
@@ -186,5 +277,105 @@ describe('wire protocol codec', () => {
     const { messages, decoder } = decodeAll(['\x00\xffgarbage' + frame(encodeDeviceMessage(m))]);
     expect(messages).toEqual([m]);
     expect(decoder.reader.stats.noiseBytes).toBe(9);
+  });
+  it('round-trips every extension command through encode and decode', () => {
+    fc.assert(
+      fc.property(extensionCommand, (c) => {
+        const body = encodeCommand(c);
+        expect(body.length).toBeLessThanOrEqual(MAX_LINE_BYTES);
+        expect(decodeCommand(body)).toEqual(c);
+      }),
+    );
+  });
+
+  it('writes the extension lines as PROTOCOL.md shows them', () => {
+    const leakage: HostCommand = {
+      type: 'leakage',
+      checkId: 41,
+      plan: {
+        heaterVolts: 12.6,
+        warmupSeconds: 20,
+        settleMs: 200,
+        pairs: [
+          { pair: 'heater-cathode', volts: 100 },
+          { pair: 'grid1-cathode', volts: 100 },
+          { pair: 'grid1-anode', volts: 100 },
+          { pair: 'anode-cathode', volts: 100 },
+        ],
+      },
+    };
+    expect(encodeCommand(leakage)).toBe('LKG,41,12.6,20,200,HK;G1K;G1A;AK,100;100;100;100');
+    expect(
+      encodeDeviceMessage({
+        type: 'extensions',
+        extensions: {
+          features: ['leakage', 'emission', 'grid-current'],
+          gridFeedKiloohms: 47,
+          leakageMaxVolts: 200,
+        },
+      }),
+    ).toBe('EXT,LKG;EMI;GAS,47,200');
+    const short: DeviceMessage = {
+      type: 'leakage',
+      checkId: 41,
+      pair: 'anode-cathode',
+      volts: 100,
+      microamps: 500,
+      overRange: true,
+    };
+    expect(encodeDeviceMessage(short)).toBe('LK,41,AK,100,500,1');
+    expect(decodeDeviceMessage('GC,42,250,-2,0,1.0132,-0.6214,47')).toEqual({
+      type: 'grid-current',
+      checkId: 42,
+      vaVolts: 250,
+      vg1Volts: -2,
+      vg2Volts: 0,
+      iaMilliamps: 1.0132,
+      ig1Microamps: -0.6214,
+      gridKiloohms: 47,
+    });
+  });
+
+  it('skips feature codes it does not know, so a newer tracer still announces the known ones', () => {
+    expect(decodeDeviceMessage('EXT,XYZ;GAS;Q9,47,200')).toEqual({
+      type: 'extensions',
+      extensions: { features: ['grid-current'], gridFeedKiloohms: 47, leakageMaxVolts: 200 },
+    });
+    expect(decodeDeviceMessage('EXT,,0,0')).toEqual({
+      type: 'extensions',
+      extensions: { features: [], gridFeedKiloohms: 0, leakageMaxVolts: 0 },
+    });
+  });
+
+  it('refuses a leakage command whose pair and voltage lists disagree or repeat a pair', () => {
+    expect(decodeCommand('LKG,1,12.6,20,200,HK;AK,100')).toBeNull();
+    expect(decodeCommand('LKG,1,12.6,20,200,HK;HK,100;100')).toBeNull();
+    expect(decodeCommand('LKG,1,12.6,20,200,HK;XX,100;100')).toBeNull();
+    expect(decodeCommand('LKG,1,12.6,20,200,,')).toBeNull();
+    expect(decodeDeviceMessage('LK,1,G3K,100,0.1,0')).toBeNull();
+  });
+
+  it('rejects a command line with any one corrupted byte, and never acts on it', () => {
+    fc.assert(
+      fc.property(
+        fc.array(extensionCommand, { minLength: 1, maxLength: 20 }),
+        fc.nat(),
+        fc.integer({ min: 1, max: 255 }),
+        (commands, where, flip) => {
+          const lines = commands.map((c) => frame(encodeCommand(c)));
+          const target = where % lines.length;
+          const line = lines[target];
+          const pos = where % (line.length - 2);
+          lines[target] =
+            line.slice(0, pos) +
+            String.fromCharCode(line.charCodeAt(pos) ^ flip) +
+            line.slice(pos + 1);
+          const decoder = new CommandStreamDecoder();
+          const got = lines.flatMap((l) => decoder.push(l));
+          expect(got).toEqual(commands.filter((_, i) => i !== target));
+        },
+      ),
+      { numRuns: 300 },
+    );
   });
 });
