@@ -159,6 +159,7 @@ describe('serial pipeline', () => {
     live.ws.close();
 
     expect(done.pointCount).toBe(500);
+    expect(done.deviceCount).toBe(500);
     expect(live.points.map((p) => p.seq)).toEqual([...Array(500).keys()]);
     const curves = new Map<number, number>();
     for (const p of live.points) curves.set(p.curve, (curves.get(p.curve) ?? 0) + 1);
@@ -191,6 +192,7 @@ describe('serial pipeline', () => {
       return s.length === ended.pointCount && s.length > 0 ? s : undefined;
     });
     expect(seqs).toEqual([...Array(seqs.length).keys()]);
+    expect(ended.deviceCount, 'stored count equals the count the tracer reported').toBe(seqs.length);
     expect(seqs.length).toBeGreaterThanOrEqual(60);
     expect(seqs.length).toBeLessThan(500);
   });
