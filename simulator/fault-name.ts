@@ -6,6 +6,7 @@ export const FAULT_NAMES = [
   'low-emission',
   'worn-cathode',
   'open-heater',
+  'leaky-heater',
   'intermittent',
   'unplug',
   'corrupt',

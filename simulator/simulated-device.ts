@@ -1,5 +1,6 @@
 import type { DeviceCapabilities } from '../shared/domain/sweep';
-import { PROTOCOL_VERSION } from '../shared/protocol';
+import { PROTOCOL_VERSION, type DeviceExtensions } from '../shared/protocol';
+import { GRID_FEED_OHMS } from './valve-socket';
 
 /** Limits and identity the simulated tracer announces (the watchdog period is configurable). */
 export const SIMULATED_DEVICE: Omit<DeviceCapabilities, 'watchdogMs'> = {
@@ -37,3 +38,15 @@ export const ELECTRODE_CHECK_VOLTS = 10;
  * pentodes legitimately pass 250 mA from about 50 V at zero grid bias.
  */
 export const SHORT_MAX_VOLTS = 20;
+
+/** Optional functions the simulated tracer announces in its EXT answer. */
+export const SIMULATED_EXTENSIONS: DeviceExtensions = {
+  features: ['leakage', 'emission', 'grid-current'],
+  gridFeedKiloohms: GRID_FEED_OHMS / 1000,
+  leakageMaxVolts: 200,
+};
+/**
+ * Highest voltage of the emission check (grids strapped to the anode), V: the strapped grids
+ * draw heavy current, so the check is for low voltages only.
+ */
+export const STRAPPED_MAX_VOLTS = 60;

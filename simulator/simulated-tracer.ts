@@ -9,13 +9,19 @@ import {
   type DeviceState,
   type HostCommand,
 } from '../shared/protocol';
+import { admitCheck, type CheckCommand } from './check-admission';
+import { CheckRun, type CheckStep } from './check-run';
 import type { FaultName } from './fault-name';
 import { LineCorrupter } from './line-corrupter';
 import { admitPlan } from './plan-admission';
 import { ScaledClock } from './scaled-clock';
 import type { SimClock, SimTimer } from './sim-clock';
 import {
+  CURVE_RESET_MS,
   DEFAULT_WATCHDOG_MS,
+  ELECTRODE_CHECK_VOLTS,
+  SHORT_MAX_VOLTS,
+  SIMULATED_EXTENSIONS,
   HEARTBEAT_MAX_WALL_MS,
   HEARTBEAT_MIN_WALL_MS,
   HEARTBEAT_MS,
@@ -26,7 +32,26 @@ import { SweepRun } from './sweep-run';
 import { TracerBusyError } from './tracer-busy-error';
 import type { LastReading, TracerSnapshot } from './tracer-snapshot';
 import type { ValveSpec } from './valve-spec';
-import { ValveSocket } from './valve-socket';
+import { GRID_FEED_OHMS, ValveSocket } from './valve-socket';
+
+/** Tags of the check commands, for their ACK and NAK lines. */
+const CHECK_TAGS: Record<CheckCommand['type'], string> = {
+  leakage: 'LKG',
+  emission: 'EMI',
+  'grid-current': 'GAS',
+};
+
+/** Why a single reading trips (above the trip current or dissipation), or undefined. */
+function tripText(
+  iaTripMilliamps: number,
+  paMaxWatts: number,
+  vaVolts: number,
+  iaMilliamps: number,
+): string | undefined {
+  const watts = (vaVolts * iaMilliamps) / 1000;
+  if (iaMilliamps <= iaTripMilliamps && watts <= paMaxWatts) return undefined;
+  return `trip: Ia ${iaMilliamps.toFixed(3)} mA (${watts.toFixed(2)} W) at ${vaVolts} V`;
+}
 
 /** Options of a SimulatedTracer. */
 export interface SimulatedTracerOptions {
@@ -63,7 +88,7 @@ export class SimulatedTracer {
   private faultLatched = false;
   private unplugged = false;
   private stopped = false;
-  private sweep: SweepRun | null = null;
+  private run: SweepRun | CheckRun | null = null;
   private heartbeatTimer: SimTimer | null = null;
   private watchdogTimer: SimTimer | null = null;
   private lastReading: LastReading | null = null;
@@ -85,6 +110,7 @@ export class SimulatedTracer {
     linesSent: 0,
     linesSuppressed: 0,
     sweepsStarted: 0,
+    checksStarted: 0,
     sweepsEnded: { complete: 0, aborted: 0, limit: 0, fault: 0, 'link-lost': 0 },
     pointsSent: 0,
     errors: 0,
@@ -135,9 +161,9 @@ export class SimulatedTracer {
 
   /** Puts another valve in the socket; refused while a sweep runs. */
   setValve(spec: string | ValveSpec): void {
-    if (this.sweep) {
+    if (this.run) {
       throw new TracerBusyError(
-        `sweep ${this.sweep.id} is running; abort it before changing the valve`,
+        `sweep ${this.run.id} is running; abort it before changing the valve`,
       );
     }
     this.socket.insert(SimulatedValve.fromSpec(spec), this.clock.now());
@@ -153,7 +179,7 @@ export class SimulatedTracer {
     }
     if (fault === 'open-heater' && this.heaterVolts > 0) {
       const text = 'heater open circuit: no heater current';
-      if (this.sweep) this.endSweep('fault', 'E30', text);
+      if (this.run) this.endSweep('fault', 'E30', text);
       else this.raiseError('E30', text);
     }
   }
@@ -161,7 +187,7 @@ export class SimulatedTracer {
   /** Switches every output off and stops all timers; the tracer answers nothing afterwards. */
   shutdown(): void {
     if (this.stopped) return;
-    if (this.sweep) this.endSweep('aborted');
+    if (this.run) this.endSweep('aborted');
     this.allOutputsOff();
     this.heartbeatTimer?.cancel();
     this.watchdogTimer?.cancel();
@@ -172,7 +198,7 @@ export class SimulatedTracer {
   snapshot(): TracerSnapshot {
     const now = this.clock.now();
     const stats = this.decoder.reader.stats;
-    const s = this.sweep;
+    const s = this.run;
     const valve = this.socket.valve;
     return {
       valve: valve.label,
@@ -190,7 +216,7 @@ export class SimulatedTracer {
       emission: this.socket.emissionAt(now),
       sweep: s && {
         id: s.id,
-        kind: s.plan.kind,
+        kind: s instanceof SweepRun ? s.plan.kind : s.kind,
         phase: s.phase,
         points: s.count,
         plannedPoints: s.plannedPoints,
@@ -227,7 +253,7 @@ export class SimulatedTracer {
         this.startSweep(command.sweepId, command.plan);
         return;
       case 'abort':
-        if (!this.sweep || this.sweep.id !== command.sweepId) {
+        if (!this.run || this.run.id !== command.sweepId) {
           this.nak('ABT', 'E11', `no sweep ${command.sweepId} is running`);
           return;
         }
@@ -235,16 +261,24 @@ export class SimulatedTracer {
         this.endSweep('aborted');
         return;
       case 'off': {
-        const running = this.sweep;
+        const running = this.run;
         this.allOutputsOff();
         this.faultLatched = false;
         this.send({ type: 'ack', command: 'OFF' });
         if (running) this.endSweep('aborted');
         return;
       }
+      case 'extensions':
+        this.send({ type: 'extensions', extensions: SIMULATED_EXTENSIONS });
+        return;
+      case 'leakage':
+      case 'emission':
+      case 'grid-current':
+        this.startCheck(command);
+        return;
       case 'zero': {
-        if (this.sweep) {
-          this.nak('ZRO', 'E12', `busy: sweep ${this.sweep.id} is running`);
+        if (this.run) {
+          this.nak('ZRO', 'E12', `busy: sweep ${this.run.id} is running`);
           return;
         }
         const offsets = this.socket.zero();
@@ -259,8 +293,8 @@ export class SimulatedTracer {
   }
 
   private setHeaterCommand(volts: number): void {
-    if (this.sweep) {
-      this.nak('HTR', 'E12', `busy: sweep ${this.sweep.id} is running`);
+    if (this.run) {
+      this.nak('HTR', 'E12', `busy: sweep ${this.run.id} is running`);
       return;
     }
     if (volts > this.capabilities.heaterMaxVolts) {
@@ -278,8 +312,8 @@ export class SimulatedTracer {
   }
 
   private startSweep(id: number, plan: SweepPlan): void {
-    if (this.sweep) {
-      this.nak('SWP', 'E12', `busy: sweep ${this.sweep.id} is running`);
+    if (this.run) {
+      this.nak('SWP', 'E12', `busy: sweep ${this.run.id} is running`);
       return;
     }
     const refusal = admitPlan(plan, this.capabilities);
@@ -299,7 +333,7 @@ export class SimulatedTracer {
       reading: (r) => (this.lastReading = r),
       finished: (reason, code, text) => this.endSweep(reason, code, text),
     });
-    this.sweep = run;
+    this.run = run;
     this.setHeater(plan.heaterVolts);
     if (plan.heaterVolts > 0 && !this.socket.heaterCurrentFlows()) {
       this.endSweep('fault', 'E30', 'heater open circuit: no heater current');
@@ -308,12 +342,126 @@ export class SimulatedTracer {
     run.start();
   }
 
+  private startCheck(command: CheckCommand): void {
+    const tag = CHECK_TAGS[command.type];
+    if (this.run) {
+      this.nak(tag, 'E12', `busy: run ${this.run.id} is going on`);
+      return;
+    }
+    const refusal = admitCheck(command, this.capabilities, SIMULATED_EXTENSIONS);
+    if (refusal) {
+      this.nak(tag, refusal.code, refusal.text);
+      return;
+    }
+    this.send({ type: 'ack', command: tag, sweepId: command.checkId });
+    this.counters.checksStarted++;
+    this.faultLatched = false;
+    const { warmupSeconds, settleMs, heaterVolts } = command.plan;
+    const run = new CheckRun(
+      command.checkId,
+      { kind: command.type, warmupSeconds, settleMs, ...this.checkSteps(command) },
+      this.clock,
+      {
+        send: (m) => this.send(m),
+        highVoltageOn: () => (this.highVoltage = true),
+        finished: (reason, code, text) => this.endSweep(reason, code, text),
+      },
+    );
+    this.run = run;
+    this.setHeater(heaterVolts);
+    if (heaterVolts > 0 && !this.socket.heaterCurrentFlows()) {
+      this.endSweep('fault', 'E30', 'heater open circuit: no heater current');
+      return;
+    }
+    run.start();
+  }
+
+  /** The electrode check and readings of a check command. */
+  private checkSteps(command: CheckCommand): {
+    preCheck?: (atMs: number) => { code: DeviceErrorCode; text: string } | null;
+    steps: CheckStep[];
+  } {
+    const id = command.checkId;
+    const socket = this.socket;
+    const record = (reading: Omit<LastReading, 'sweepId'>) =>
+      (this.lastReading = { sweepId: id, ...reading });
+    switch (command.type) {
+      case 'leakage':
+        return {
+          steps: command.plan.pairs.map(({ pair, volts }) => () => {
+            const r = socket.readLeakage(pair, volts);
+            return {
+              message: { type: 'leakage', checkId: id, pair, volts, ...r },
+            };
+          }),
+        };
+      case 'emission': {
+        const p = command.plan;
+        return {
+          steps: [
+            (atMs) => {
+              const r = socket.readStrapped(p.vaVolts, atMs);
+              record({
+                vaVolts: p.vaVolts,
+                vg1Volts: p.vaVolts,
+                vg2Volts: socket.valve.hasScreen ? p.vaVolts : 0,
+                iaMilliamps: r.milliamps,
+                ig2Milliamps: 0,
+                gridCurrentMicroamps: 0,
+                emission: socket.emissionAt(atMs),
+              });
+              if (r.overRange && p.vaVolts <= SHORT_MAX_VOLTS) {
+                const text = `short circuit: over range at ${p.vaVolts} V with grids strapped`;
+                return { fault: { code: 'E31', text } };
+              }
+              return {
+                message: { type: 'emission', checkId: id, vaVolts: p.vaVolts, ...r },
+                trip: tripText(p.iaTripMilliamps, p.paMaxWatts, p.vaVolts, r.milliamps),
+              };
+            },
+          ],
+        };
+      }
+      case 'grid-current': {
+        const p = command.plan;
+        return {
+          preCheck: (atMs) => {
+            const check = socket.read(ELECTRODE_CHECK_VOLTS, p.vg1Volts, 0, atMs);
+            if (!check.overRange) return null;
+            const text = `short circuit: over range at the ${ELECTRODE_CHECK_VOLTS} V electrode check`;
+            return { code: 'E31', text };
+          },
+          steps: [
+            (atMs) => {
+              // The supplies come up after the check, as between the curves of a sweep.
+              const r = socket.read(p.vaVolts, p.vg1Volts, p.vg2Volts, atMs + CURVE_RESET_MS);
+              record({ vaVolts: p.vaVolts, vg1Volts: p.vg1Volts, vg2Volts: p.vg2Volts, ...r });
+              return {
+                message: {
+                  type: 'grid-current',
+                  checkId: id,
+                  vaVolts: p.vaVolts,
+                  vg1Volts: p.vg1Volts,
+                  vg2Volts: p.vg2Volts,
+                  iaMilliamps: r.iaMilliamps,
+                  ig1Microamps: r.gridCurrentMicroamps,
+                  gridKiloohms: GRID_FEED_OHMS / 1000,
+                },
+                trip: tripText(p.iaTripMilliamps, p.paMaxWatts, p.vaVolts, r.iaMilliamps),
+              };
+            },
+          ],
+        };
+      }
+    }
+  }
+
   /** Ends the running sweep; with an error code every output goes off and ERR follows END. */
   private endSweep(reason: SweepEndReason, code?: DeviceErrorCode, text?: string): void {
-    const sweep = this.sweep;
+    const sweep = this.run;
     if (!sweep) return;
     sweep.cancel();
-    this.sweep = null;
+    this.run = null;
     this.highVoltage = false;
     this.send({ type: 'end', sweepId: sweep.id, reason, count: sweep.count });
     this.counters.sweepsEnded[reason]++;
@@ -348,10 +496,10 @@ export class SimulatedTracer {
 
   private watchdogExpired(): void {
     this.watchdogTimer = null;
-    if (!this.sweep && !this.highVoltage && this.heaterVolts === 0) return;
+    if (!this.run && !this.highVoltage && this.heaterVolts === 0) return;
     this.counters.watchdogExpiries++;
     const text = `watchdog: no host line for ${this.capabilities.watchdogMs} ms; outputs off`;
-    if (this.sweep) this.endSweep('link-lost', 'E40', text);
+    if (this.run) this.endSweep('link-lost', 'E40', text);
     else this.raiseError('E40', text);
   }
 
@@ -380,12 +528,12 @@ export class SimulatedTracer {
   }
 
   private state(): DeviceState {
-    if (this.sweep) return this.sweep.phase === 'warming' ? 'warming' : 'sweeping';
+    if (this.run) return this.run.phase === 'warming' ? 'warming' : 'sweeping';
     return this.faultLatched ? 'fault' : 'idle';
   }
 
   private warmupLeftSeconds(now: number): number {
-    return this.sweep?.warmupLeftSeconds(now) ?? 0;
+    return this.run?.warmupLeftSeconds(now) ?? 0;
   }
 
   private nak(command: string, code: DeviceErrorCode, text: string): void {

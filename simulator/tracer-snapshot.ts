@@ -1,5 +1,5 @@
 import type { SweepEndReason, SweepKind } from '../shared/domain/sweep';
-import type { DeviceState, HostCommand, LineStats } from '../shared/protocol';
+import type { CheckKind, DeviceState, HostCommand, LineStats } from '../shared/protocol';
 import type { FaultName } from './fault-name';
 
 /** The last reading taken, for the control API. */
@@ -16,7 +16,7 @@ export interface LastReading {
   iaMilliamps: number;
   /** Screen current, mA. */
   ig2Milliamps: number;
-  /** Grid-1 current, uA (negative: reverse, positive-ion current). Not on the wire in v1. */
+  /** Grid-1 current, uA (negative: reverse, positive-ion current); on the wire only in GC. */
   gridCurrentMicroamps: number;
   /** Cathode emission, fraction of a sound cathode's at nominal heater. */
   emission: number;
@@ -50,17 +50,17 @@ export interface TracerSnapshot {
   warmupLeftSeconds: number;
   /** Cathode emission now, fraction of a sound cathode's at nominal heater. */
   emission: number;
-  /** The running sweep, if any. */
+  /** The running sweep or check, if any. */
   sweep: {
     id: number;
-    kind: SweepKind;
+    kind: SweepKind | CheckKind;
     phase: 'warming' | 'measuring';
     /** Points sent so far. */
     points: number;
     /** Points the plan asks for at most. */
     plannedPoints: number;
   } | null;
-  /** The last reading taken, with the grid current that v1 of the protocol cannot carry. */
+  /** The last reading taken, with the grid current (which only the GAS check reports). */
   lastReading: LastReading | null;
   /** Counters since start. */
   counters: {
@@ -76,7 +76,9 @@ export interface TracerSnapshot {
     linesSuppressed: number;
     /** Sweeps acknowledged. */
     sweepsStarted: number;
-    /** Sweeps ended, by reason. */
+    /** Checks (LKG, EMI, GAS) acknowledged. */
+    checksStarted: number;
+    /** Sweeps and checks ended, by reason. */
     sweepsEnded: Record<SweepEndReason, number>;
     /** PT lines sent. */
     pointsSent: number;

@@ -1,3 +1,4 @@
+import type { ElectrodePair } from '../shared/protocol';
 import { CathodeModel } from './cathode-model';
 import { CurrentAdc } from './current-adc';
 import type { FaultName } from './fault-name';
@@ -13,9 +14,8 @@ export interface SocketReading {
   /** Whether the anode current was beyond the largest measuring range. */
   overRange: boolean;
   /**
-   * Grid-1 current, uA; negative is reverse (positive-ion) current as a gassy valve draws.
-   * Version 1 of the protocol has no field for it; it is kept for the control API and for a
-   * later grid-current test.
+   * Grid-1 current, uA; negative is reverse (positive-ion) current as a gassy valve draws. The
+   * core protocol has no field for it; the grid-current check (GAS) reports it.
    */
   gridCurrentMicroamps: number;
   /** Cathode emission at the reading, fraction of a sound cathode's at nominal heater. */
@@ -44,7 +44,31 @@ const IONISATION_VOLTS = 15;
  * Series resistor in the simulated grid-1 feed, ohm. A positive-ion current through it lifts
  * the grid above its set voltage, which is why a gassy valve draws more anode current.
  */
-const GRID_FEED_OHMS = 47000;
+export const GRID_FEED_OHMS = 47000;
+
+/** Reverse grid current of a sound valve at the type's reference current, uA (a few nA). */
+const SOUND_GRID_MICROAMPS = 0.003;
+/** Noise of the grid-current channel (standard deviation), uA. */
+const GRID_NOISE_MICROAMPS = 0.0005;
+/** Current-limiting resistor of the leakage supply, ohm: a dead short draws V / 100 kOhm. */
+export const LEAKAGE_SERIES_OHMS = 100_000;
+/** Full scale of the leakage meter, uA; beyond it the reading is over range. */
+export const LEAKAGE_RANGE_MICROAMPS = 500;
+/** Heater-cathode insulation under the leaky-heater fault, ohm. */
+const LEAKY_HEATER_OHMS = 2e6;
+/** Insulation between socket contacts with no electrode behind them (a triode's screen), ohm. */
+const SOCKET_INSULATION_OHMS = 1e11;
+/** Noise of the leakage meter: floor (standard deviation), uA, and share of the reading. */
+const LEAKAGE_NOISE_MICROAMPS = 0.001;
+const LEAKAGE_NOISE_RELATIVE = 0.005;
+
+/** One reading of the leakage meter. */
+export interface LeakageMeterReading {
+  /** Current, uA (full scale when over range). */
+  microamps: number;
+  /** Whether the current was beyond the meter's range. */
+  overRange: boolean;
+}
 
 /** Options of a ValveSocket. */
 export interface ValveSocketOptions {
@@ -68,6 +92,7 @@ export class ValveSocket {
   private cathode: CathodeModel;
   private noise: SeededRandom;
   private dropouts: SeededRandom;
+  private gridNoise: SeededRandom;
   private heaterVolts = 0;
   private readonly noisy: boolean;
 
@@ -80,6 +105,7 @@ export class ValveSocket {
     this.cathode = new CathodeModel(valve.type.heaterVolts);
     this.noise = SeededRandom.fromText(`${valve.label}/noise`);
     this.dropouts = SeededRandom.fromText(`${valve.label}/dropouts`);
+    this.gridNoise = SeededRandom.fromText(`${valve.label}/grid-noise`);
   }
 
   /** Fault in effect. */
@@ -105,6 +131,7 @@ export class ValveSocket {
     this.setHeater(this.heaterVolts, atMs);
     this.noise = SeededRandom.fromText(`${valve.label}/noise`);
     this.dropouts = SeededRandom.fromText(`${valve.label}/dropouts`);
+    this.gridNoise = SeededRandom.fromText(`${valve.label}/grid-noise`);
   }
 
   /** Sets the heater supply (V; 0 = off) from `atMs` on. An open heater never warms. */
@@ -159,9 +186,41 @@ export class ValveSocket {
       iaMilliamps: iaReading.milliamps,
       ig2Milliamps: screenLive ? this.ig2Adc.convert(ig2).milliamps : 0,
       overRange: iaReading.overRange,
-      gridCurrentMicroamps: ionMicroamps === 0 ? 0 : -ionMicroamps,
+      gridCurrentMicroamps: this.gridMicroamps(c.ia, ionMicroamps),
       emission,
     };
+  }
+
+  /**
+   * Reads the valve as a diode: grid 1 (and the screen of a pentode) strapped to the anode, all
+   * at `vaVolts`; the current is the whole cathode current, mA, through the anode channel.
+   */
+  readStrapped(vaVolts: number, atMs: number): { milliamps: number; overRange: boolean } {
+    const emission = this.emissionAt(atMs);
+    const c = this.current.currents(0, vaVolts, vaVolts, this.current.hasScreen ? vaVolts : 0);
+    let ik = (c.iaMilliamps + c.ig2Milliamps) * emission;
+    if (this.fault === 'short') ik += (Math.max(0, vaVolts) / SHORT_OHMS) * 1000;
+    if (this.noisy) ik += this.noise.gaussian() * (NOISE_RELATIVE * ik + NOISE_FLOOR_MILLIAMPS);
+    return this.iaAdc.convert(ik);
+  }
+
+  /**
+   * Reads the leakage current between two electrodes with `volts` applied through the leakage
+   * supply's current-limiting resistor. A sound valve's insulation is 0.5-5 GOhm (tens of nA at
+   * 100 V), different for each valve and pair; the short fault puts 5 Ohm between anode and
+   * cathode, the leaky-heater fault 2 MOhm between heater and cathode.
+   */
+  readLeakage(pair: ElectrodePair, volts: number): LeakageMeterReading {
+    const ohms = this.insulationOhms(pair);
+    let microamps = (Math.max(0, volts) / (LEAKAGE_SERIES_OHMS + ohms)) * 1e6;
+    if (this.noisy) {
+      const sd = LEAKAGE_NOISE_MICROAMPS + LEAKAGE_NOISE_RELATIVE * microamps;
+      microamps += this.noise.gaussian() * sd;
+    }
+    if (microamps > LEAKAGE_RANGE_MICROAMPS) {
+      return { microamps: LEAKAGE_RANGE_MICROAMPS, overRange: true };
+    }
+    return { microamps: Math.max(0, Math.round(microamps * 1e4) / 1e4), overRange: false };
   }
 
   /** Zeroes both channels (outputs must be off); returns the offsets found, mA. */
@@ -171,6 +230,25 @@ export class ValveSocket {
       iaMilliamps: this.iaAdc.zero(noise, NOISE_FLOOR_MILLIAMPS),
       ig2Milliamps: this.ig2Adc.zero(noise, NOISE_FLOOR_MILLIAMPS),
     };
+  }
+
+  /** Insulation resistance between a pair of electrodes, ohm. */
+  private insulationOhms(pair: ElectrodePair): number {
+    if (this.fault === 'short' && pair === 'anode-cathode') return SHORT_OHMS;
+    if (this.fault === 'leaky-heater' && pair === 'heater-cathode') return LEAKY_HEATER_OHMS;
+    if (pair.startsWith('screen') && !this.current.hasScreen) return SOCKET_INSULATION_OHMS;
+    const u = SeededRandom.fromText(`${this.current.label}/insulation/${pair}`).next();
+    // Hot heater-cathode insulation is the weakest of a sound valve: 0.5-2 GOhm; others 1-5.
+    return pair === 'heater-cathode' ? 10 ** (8.7 + 0.6 * u) : 10 ** (9 + 0.7 * u);
+  }
+
+  /* Grid-1 current: a sound valve's few nA of reverse current, the gas fault's ion current, and
+   * the channel's noise, resolved to 0.1 nA. */
+  private gridMicroamps(iaMilliamps: number, ionMicroamps: number): number {
+    const reference = this.current.type.operatingPoints[0].iaMilliamps;
+    let ig1 = -SOUND_GRID_MICROAMPS * (iaMilliamps / reference) - ionMicroamps;
+    if (this.noisy) ig1 += this.gridNoise.gaussian() * GRID_NOISE_MICROAMPS;
+    return Math.round(ig1 * 1e4) / 1e4;
   }
 
   private ionMicroamps(iaMilliamps: number, vaVolts: number, atMs: number): number {
