@@ -6,6 +6,7 @@ import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatIconTestingModule } from '@angular/material/icon/testing';
 import { provideEchartsCore } from 'ngx-echarts';
 import { of, type Observable } from 'rxjs';
+import type { SweepStatus } from '../../../shared/domain/sweep';
 import type { BenchView } from '../../../shared/hub/messages';
 import {
   benchView,
@@ -26,11 +27,13 @@ class LiveStub {
   readonly lastError = signal(null);
   readonly aborted: number[] = [];
   readonly watched: number[] = [];
+  /** Status the hub reports per sweep; running unless set. */
+  readonly statuses = new Map<number, SweepStatus>();
 
   watchSweep(id: number): Observable<SweepMessage> {
     this.watched.push(id);
     return of<SweepMessage[]>(
-      { type: 'sweep', sweep: sweepView({ id, status: 'running' }) },
+      { type: 'sweep', sweep: sweepView({ id, status: this.statuses.get(id) ?? 'running' }) },
       { type: 'points', sweepId: id, points: pointsOf(SMALL_PLAN, 5).slice(0, 4) },
     );
   }
@@ -46,10 +49,11 @@ describe('BenchPage', () => {
   let http: HttpTestingController;
   let live: LiveStub;
 
-  async function render(role: Role) {
+  async function render(role: Role, benches = [benchView({}, 7)]) {
     localStorage.clear();
     storeSession(role);
     live = new LiveStub();
+    live.benches.set(benches);
     TestBed.configureTestingModule({
       imports: [BenchPage],
       providers: [
@@ -64,7 +68,7 @@ describe('BenchPage', () => {
     http = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(BenchPage);
     fixture.detectChanges();
-    http.expectOne('/api/benches').flush([benchView({}, 7)]);
+    http.expectOne('/api/benches').flush(benches);
     http.expectOne('/api/valve-types').flush(VALVE_TYPE_VIEWS);
     await fixture.whenStable();
   }
@@ -119,5 +123,24 @@ describe('BenchPage', () => {
     expect(readouts).toContain('Pa0.180W');
     expect(readouts).not.toContain('Ig2');
     expect(page().textContent).toContain('4 / 15 points');
+  });
+
+  it('shows the latest stored sweep of an idle bench, without an abort', async () => {
+    await render('technician', [benchView()]);
+    live.statuses.set(5, 'complete');
+    const req = http.expectOne((r) => r.url === '/api/sweeps');
+    expect(req.request.params.get('benchId')).toBe('1');
+    expect(req.request.params.get('pageSize')).toBe('1');
+    req.flush({
+      items: [sweepView({ id: 5, status: 'complete' })],
+      total: 1,
+      page: 1,
+      pageSize: 1,
+    });
+    await fixture.whenStable();
+    expect(live.watched).toEqual([5]);
+    expect(page().textContent).toContain('Sweep #5');
+    expect(page().textContent).toContain('Every curve was measured.');
+    expect(abortButton()).toBeUndefined();
   });
 });

@@ -1,11 +1,16 @@
+import { DOCUMENT } from '@angular/common';
 import {
+  afterNextRender,
   ChangeDetectionStrategy,
   Component,
   computed,
   effect,
+  ElementRef,
   inject,
+  Injector,
   signal,
   untracked,
+  viewChild,
 } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
@@ -23,11 +28,20 @@ import {
   initialSweepWatchState,
   type SweepWatchState,
 } from '../core/sweep-watch-state';
-import { SweepsApi } from '../core/sweeps-api';
+import { SweepsApi, type SweepQuery } from '../core/sweeps-api';
 import { ValveTypesApi, type ValveTypeView } from '../core/valve-types-api';
 import { BenchList } from './bench-list';
 import { LiveSweep } from './live-sweep';
 import { SweepPlanForm } from './sweep-plan-form';
+
+const LATEST_SWEEP_QUERY: SweepQuery = {
+  page: 1,
+  pageSize: 1,
+  sort: 'createdAt',
+  order: 'desc',
+  status: '',
+  q: '',
+};
 
 /**
  * The bench page: choose a bench, plan and start a sweep, watch it live and abort it. Viewers
@@ -47,6 +61,9 @@ export class BenchPage {
   private readonly dialog = inject(MatDialog);
   private readonly snackBar = inject(MatSnackBar);
   protected readonly auth = inject(Auth);
+  private readonly document = inject(DOCUMENT);
+  private readonly injector = inject(Injector);
+  private readonly livePanel = viewChild<ElementRef<HTMLElement>>('livePanel');
 
   protected readonly loadError = signal<string | null>(null);
   private readonly restBenches = toSignal(
@@ -98,6 +115,7 @@ export class BenchPage {
     { initialValue: null },
   );
 
+  protected readonly showingSweep = computed(() => !!this.watch()?.sweep);
   protected readonly sweepActive = computed(() => {
     const status = this.watch()?.sweep?.status;
     const bench = this.bench();
@@ -107,7 +125,27 @@ export class BenchPage {
     () => this.auth.canOperate() && this.sweepActive() && this.sweepId() !== null,
   );
 
+  /** Benches whose latest stored sweep has been asked for. */
+  private readonly latestRequested = new Set<number>();
+
   constructor() {
+    // After a reload nothing is running: show the bench's latest stored sweep instead of nothing.
+    effect(() => {
+      const bench = this.bench();
+      if (!bench || bench.status?.sweepId != null) return;
+      if (untracked(this.lastSweepByBench).has(bench.id)) return;
+      if (this.latestRequested.has(bench.id)) return;
+      this.latestRequested.add(bench.id);
+      this.sweepsApi
+        .list({ ...LATEST_SWEEP_QUERY, benchId: bench.id })
+        .pipe(catchError(() => of(null)))
+        .subscribe((page) => {
+          const latest = page?.items[0];
+          if (latest && !this.lastSweepByBench().has(bench.id)) {
+            this.lastSweepByBench.update((m) => new Map(m).set(bench.id, latest.id));
+          }
+        });
+    });
     effect(() => {
       const seen = untracked(this.lastSweepByBench);
       const updates = this.benches().filter(
@@ -126,6 +164,19 @@ export class BenchPage {
 
   protected sweepStarted(sweep: SweepView): void {
     this.startedSweeps.set(sweep.id, sweep);
+    // On a tablet the live view can be off screen below the form: bring it up.
+    afterNextRender(
+      () => {
+        const panel = this.livePanel()?.nativeElement;
+        const view = this.document.defaultView;
+        if (!panel || !view) return;
+        const top = panel.getBoundingClientRect().top;
+        if (top >= 0 && top < view.innerHeight * 0.5) return;
+        const reduced = view.matchMedia?.('(prefers-reduced-motion: reduce)').matches;
+        panel.scrollIntoView({ block: 'start', behavior: reduced ? 'auto' : 'smooth' });
+      },
+      { injector: this.injector },
+    );
     this.lastSweepByBench.update((m) => new Map(m).set(sweep.benchId, sweep.id));
     this.snackBar.open(
       `Sweep #${sweep.id} sent to ${this.bench()?.name ?? 'the bench'}`,

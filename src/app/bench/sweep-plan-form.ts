@@ -238,6 +238,7 @@ export class SweepPlanForm {
       return `The tracer of ${bench.name} is not connected.`;
     if (this.busy()) return `A sweep is already running on ${bench.name}.`;
     if (this.submitting()) return 'Starting…';
+    if (!this.selectedType()) return 'Choose the valve type to start.';
     if (this.problems().size) return 'Correct the marked fields to start.';
     return null;
   });
@@ -262,14 +263,13 @@ export class SweepPlanForm {
     return this.problems().get(key) ?? null;
   }
 
-  /** "max 300 V · 12AX7" style hint naming the limit that binds and where it comes from. */
+  /** The limit that binds a field: "max 300 V" from the type, "bench max 250 mA" otherwise. */
   protected limitHint(key: 'vaMaxVolts' | 'vg2MaxVolts' | 'paMaxWatts' | 'iaMaxMilliamps'): string {
     const value = this.limits()[key];
     if (!Number.isFinite(value)) return '';
     const unit = key === 'paMaxWatts' ? 'W' : key === 'iaMaxMilliamps' ? 'mA' : 'V';
     const fromType = !this.overriding() && this.typeLimits()?.[key] === value;
-    const source = fromType ? this.selectedType()?.designation : 'bench';
-    return `max ${round(value)} ${unit} · ${source}`;
+    return `${fromType ? 'max' : 'bench max'} ${round(value)} ${unit}`;
   }
 
   /** Opens the confirmation, then posts the plan. */
@@ -355,13 +355,17 @@ export class SweepPlanForm {
 
   private errorMatchers(): Record<NumberField | 'valveType', ErrorStateMatcher> {
     const matchers = {} as Record<NumberField | 'valveType', ErrorStateMatcher>;
-    for (const key of [...NUMBER_FIELDS, 'valveType' as const]) {
+    for (const key of NUMBER_FIELDS) {
       const gridEnd = key === 'vg1StartVolts' || key === 'vg1StopVolts';
       matchers[key] = {
         isErrorState: () =>
           this.problems().has(key) || (gridEnd && this.problems().has('vg1Volts')),
       };
     }
+    // No type yet is where every plan starts, not a mistake: red only once the user was there.
+    matchers.valveType = {
+      isErrorState: (control) => !!control?.touched && this.problems().has('valveType'),
+    };
     return matchers;
   }
 

@@ -22,6 +22,8 @@ export interface SweepQuery {
   order: 'asc' | 'desc';
   status: SweepStatus | '';
   q: string;
+  /** Only sweeps of this bench. */
+  benchId?: number;
 }
 
 /** One page of sweeps. */
@@ -59,6 +61,7 @@ export class SweepsApi {
       .set('order', query.order);
     if (query.status) params = params.set('status', query.status);
     if (query.q.trim()) params = params.set('q', query.q.trim());
+    if (query.benchId !== undefined) params = params.set('benchId', query.benchId);
     return this.http.get<SweepPage>('/api/sweeps', { params });
   }
 

@@ -1,6 +1,18 @@
 import { HttpErrorResponse } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  inject,
+  input,
+  signal,
+  viewChild,
+} from '@angular/core';
+import {
+  FormGroupDirective,
+  NonNullableFormBuilder,
+  ReactiveFormsModule,
+  Validators,
+} from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -36,6 +48,7 @@ export class SignIn {
     username: ['', Validators.required],
     password: ['', Validators.required],
   });
+  private readonly formDirective = viewChild(FormGroupDirective);
   protected readonly busy = signal(false);
   protected readonly error = signal<string | null>(null);
 
@@ -54,7 +67,8 @@ export class SignIn {
       },
       error: (err: unknown) => {
         this.busy.set(false);
-        this.form.controls.password.reset();
+        // Clears the submitted state too, so the empty password is not flagged on top.
+        this.formDirective()?.resetForm({ username, password: '' });
         this.error.set(
           err instanceof HttpErrorResponse && err.status === 401
             ? 'That user name and password do not match. Check both and try again.'

@@ -154,10 +154,14 @@ function baseChartOptions(kind: SweepKind, plan: SweepPlan, dark: boolean): ECha
     backgroundColor: 'transparent',
     animation: false,
     textStyle: { fontFamily: 'Roboto, system-ui, sans-serif', color: text },
-    grid: { left: 56, right: 24, top: 56, bottom: 48 },
+    grid: { left: 56, right: 128, top: 24, bottom: 48 },
+    // Beside the plot, top to bottom like the curves: Vg1 = 0 V first.
     legend: {
       type: 'scroll',
-      top: 4,
+      orient: 'vertical',
+      right: 0,
+      top: 16,
+      bottom: 40,
       textStyle: { color: text, fontFamily: mono, fontSize: 11 },
       pageTextStyle: { color: text },
       icon: 'roundRect',

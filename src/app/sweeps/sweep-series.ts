@@ -65,7 +65,7 @@ export function sweepSeries(
     );
     if (curvePoints.some((p) => p.ig2Milliamps !== 0)) {
       const data = curvePoints.map((p): [number, number] => [x(p), p.ig2Milliamps]);
-      out.push(line(`ig2-${curve}`, name, data, colour, 'dashed', sparse));
+      out.push(line(`ig2-${curve}`, name, data, colour, 'dashed', false));
     }
   }
   return out;
