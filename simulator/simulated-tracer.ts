@@ -1,3 +1,4 @@
+import { TRIP_MARGIN } from '../shared/domain/plan-check';
 import type { DeviceCapabilities, SweepEndReason, SweepPlan } from '../shared/domain/sweep';
 import {
   CommandStreamDecoder,
@@ -41,7 +42,7 @@ const CHECK_TAGS: Record<CheckCommand['type'], string> = {
   'grid-current': 'GAS',
 };
 
-/** Why a single reading trips (above the trip current or dissipation), or undefined. */
+/** Why a single reading trips (as in a sweep: Ia above iatrip, or Va·Ia above 1.5 × pamax). */
 function tripText(
   iaTripMilliamps: number,
   paMaxWatts: number,
@@ -49,7 +50,7 @@ function tripText(
   iaMilliamps: number,
 ): string | undefined {
   const watts = (vaVolts * iaMilliamps) / 1000;
-  if (iaMilliamps <= iaTripMilliamps && watts <= paMaxWatts) return undefined;
+  if (iaMilliamps <= iaTripMilliamps && watts <= paMaxWatts * TRIP_MARGIN) return undefined;
   return `trip: Ia ${iaMilliamps.toFixed(3)} mA (${watts.toFixed(2)} W) at ${vaVolts} V`;
 }
 

@@ -1,4 +1,5 @@
 import type { SweepPlan, SweepPoint } from '../domain/sweep';
+import type { DeviceMessage } from './messages';
 
 /*
  * Checks: short measurements the quick tests are made of, run on the tracer one at a time like
@@ -169,4 +170,64 @@ export type CheckReading = LeakageReading | EmissionReading | GridCurrentReading
 /** The optional feature a check kind needs, or null for a plain SWP. */
 export function featureOfCheck(kind: CheckKind): CheckFeature | null {
   return kind === 'transfer' ? null : kind;
+}
+
+/** A check as the tracer command that runs it (the same id on the wire). */
+export function checkCommand(checkId: number, check: CheckPlan): CheckCommandOf {
+  switch (check.kind) {
+    case 'transfer':
+      return { type: 'sweep', sweepId: checkId, plan: check.plan };
+    case 'leakage': {
+      const { kind: _kind, ...plan } = check;
+      return { type: 'leakage', checkId, plan };
+    }
+    case 'emission': {
+      const { kind: _kind, ...plan } = check;
+      return { type: 'emission', checkId, plan };
+    }
+    case 'grid-current': {
+      const { kind: _kind, ...plan } = check;
+      return { type: 'grid-current', checkId, plan };
+    }
+  }
+}
+
+/** Tracer commands that start a check. */
+export type CheckCommandOf =
+  | { type: 'sweep'; sweepId: number; plan: SweepPlan }
+  | { type: 'leakage'; checkId: number; plan: Omit<LeakageCheckPlan, 'kind'> }
+  | { type: 'emission'; checkId: number; plan: Omit<EmissionCheckPlan, 'kind'> }
+  | { type: 'grid-current'; checkId: number; plan: Omit<GridCurrentCheckPlan, 'kind'> };
+
+/** Tag of the command that starts a check, as its ACK and NAK lines name it. */
+export function checkCommandTag(kind: CheckKind): 'SWP' | 'LKG' | 'EMI' | 'GAS' {
+  return ({ transfer: 'SWP', leakage: 'LKG', emission: 'EMI', 'grid-current': 'GAS' } as const)[
+    kind
+  ];
+}
+
+/** A device result line as a check reading with its check id, or null for other messages. */
+export function checkReadingOf(
+  m: DeviceMessage,
+): { checkId: number; reading: CheckReading } | null {
+  switch (m.type) {
+    case 'point': {
+      const { type: _type, sweepId, ...point } = m;
+      return { checkId: sweepId, reading: { kind: 'point', ...point } };
+    }
+    case 'leakage': {
+      const { type: _type, checkId, ...rest } = m;
+      return { checkId, reading: { kind: 'leakage', ...rest } };
+    }
+    case 'emission': {
+      const { type: _type, checkId, ...rest } = m;
+      return { checkId, reading: { kind: 'emission', ...rest } };
+    }
+    case 'grid-current': {
+      const { type: _type, checkId, ...rest } = m;
+      return { checkId, reading: { kind: 'grid-current', ...rest } };
+    }
+    default:
+      return null;
+  }
 }
