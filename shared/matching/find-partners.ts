@@ -1,3 +1,4 @@
+import { refuse, type Refusal } from '../analysis/refusal';
 import { compareIds, exclusion } from './group-valves';
 import { groupSpread } from './group-spread';
 import type { ResolvedCriteria } from './matching-criteria';
@@ -21,15 +22,18 @@ export interface PartnerMatch {
 /**
  * The best partners for one valve in a pool, nearest first (ties by id), at most limit of them.
  * The valve itself (same id) and candidates the criteria rule out (no section 2 where needed,
- * section imbalance over the limit) are skipped. The distance is the one grouping uses, so the
- * first candidate is the valve's nearest neighbour in the same sense as a matched pair.
+ * section imbalance over the limit) are skipped; a valve the criteria rule out gets a refusal.
+ * The distance is the one grouping uses, so the first candidate is the valve's nearest
+ * neighbour in the same sense as a matched pair.
  */
 export function findPartners(
   target: ValveFeatures,
   pool: readonly ValveFeatures[],
   criteria: ResolvedCriteria,
   limit = 10,
-): PartnerMatch[] {
+): { ok: true; partners: PartnerMatch[] } | Refusal {
+  const ruledOut = exclusion(target, criteria);
+  if (ruledOut) return refuse(`${target.label} cannot be matched: ${ruledOut.detail}`);
   const ranked = pool
     .filter((f) => f.id !== target.id && exclusion(f, criteria) === null)
     .map((f) => {
@@ -45,5 +49,5 @@ export function findPartners(
   ranked.sort(
     (a, b) => a.distance.distancePercent - b.distance.distancePercent || compareIds(a.id, b.id),
   );
-  return ranked.slice(0, Math.max(0, limit));
+  return { ok: true, partners: ranked.slice(0, Math.max(0, limit)) };
 }

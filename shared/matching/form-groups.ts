@@ -1,17 +1,19 @@
 import type { CostMatrix } from './cost-matrix';
 import { improvePartition, isBetter, type Partition } from './improve-partition';
-import { minCostMatching, type MatchingOptions } from './min-cost-matching';
+import { EXACT_MATCHING_LIMIT, minCostMatching, type MatchingOptions } from './min-cost-matching';
 
 /**
  * Splits a pool into groups of groupSize at a low total group cost (each group costs its largest
  * pairwise cost; members that do not fill a group are left over). Method, deterministic:
- * write the size as 2^m·r with r odd. Start from groups of r: single members when r = 1,
- * otherwise runs of r along a one-dimensional ordering (cost from the member farthest from
- * member 0). Then m times, pair the groups by minimum-cost matching (Edmonds' blossom) on the
- * cost of their union, so pairs become quads, quads octets; an odd group out is left over.
- * Finally improve by local search (improvePartition). Pairs are exact optimum up to
- * EXACT_MATCHING_LIMIT members; larger groups are a heuristic measured against brute force and
- * random restarts in the tests and the benchmark.
+ * write the size as 2^m·r with r odd. Seed groups of r: single members when r = 1, otherwise
+ * runs of r along a one-dimensional ordering (cost from a member at the edge of the pool).
+ * Then m times, pair the groups by minimum-cost matching (Edmonds' blossom) on the cost of their
+ * union, so pairs become quads, quads octets; an odd group out is left over. Improve that by
+ * local search (improvePartition). Pools of up to MULTI_START_LIMIT members also run the local
+ * search from runs of the full size along four orderings and keep the best result (ties: the
+ * blossom route). Pairs are the exact optimum up to EXACT_MATCHING_LIMIT members (local search
+ * cannot beat an optimum); larger groups are a heuristic, measured against brute force in the
+ * tests and against random restarts in the benchmark.
  */
 export function formGroups(
   costs: CostMatrix,
@@ -31,9 +33,16 @@ export function formGroups(
   const anchors = farthestPoints(costs, ANCHORS);
   // The blossom route: seeds of the odd factor (single members for powers of two), doubled.
   starts.push(double(costs, seedRuns(costs, odd, anchors[0] ?? 0), doublings, options));
-  // Plain runs of the full size along a few orderings: cheap, and they rescue the pools where
-  // the best pairs are not the best halves of the best groups.
-  for (const a of anchors) starts.push(seedRuns(costs, groupSize, a));
+  // Small pools also start from plain runs of the full size along a few orderings: they rescue
+  // the pools where the best pairs are not the best halves of the best groups. In large pools
+  // such starts only cost time: the local search from them ends worse than from the blossom.
+  const exactPairs = groupSize === 2 && costs.size <= (options.exactLimit ?? EXACT_MATCHING_LIMIT);
+  if (costs.size <= MULTI_START_LIMIT && !exactPairs) {
+    // Without doublings the blossom route already is the run start from the first anchor.
+    for (const a of doublings ? anchors : anchors.slice(1)) {
+      starts.push(seedRuns(costs, groupSize, a));
+    }
+  }
   let best: Partition | null = null;
   let bestCost = 0;
   let bestSum = 0;
@@ -52,6 +61,9 @@ export function formGroups(
 
 /** Number of orderings (anchors) tried for the run starts. */
 const ANCHORS = 4;
+
+/** Pools up to this many members get the extra run starts. */
+const MULTI_START_LIMIT = 128;
 
 function double(
   costs: CostMatrix,

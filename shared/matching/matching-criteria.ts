@@ -219,6 +219,12 @@ export function resolveCriteria(
   if (!(maxImbalance >= 0)) {
     return refuse(`the largest section imbalance must be 0 % or more; got ${maxImbalance}`);
   }
+  const sections = criteria.sections ?? 'first';
+  const usesSecond =
+    sections === 'both' || Number.isFinite(maxImbalance) || sectionBalanceWeight > 0;
+  if (type && type.sections < 2 && usesSecond) {
+    return refuse(`${name} has one section: section matching and balance do not apply`);
+  }
   return {
     ok: true,
     criteria: {
@@ -231,7 +237,7 @@ export function resolveCriteria(
       curveWeight,
       tolerancePercent,
       groupSize: n,
-      sections: criteria.sections ?? 'first',
+      sections,
       maxSectionImbalancePercent: maxImbalance,
       sectionBalanceWeight,
     },

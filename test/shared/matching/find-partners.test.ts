@@ -27,6 +27,12 @@ function valve(id: string, law: ValveLaw, c: ResolvedCriteria): ValveFeatures {
   return f.features;
 }
 
+function partners(...args: Parameters<typeof findPartners>) {
+  const r = findPartners(...args);
+  if (!r.ok) throw new Error(r.reason);
+  return r.partners;
+}
+
 describe('finding a partner', () => {
   const c = criteria();
   const base = publishedLaw('EL34');
@@ -41,7 +47,7 @@ describe('finding a partner', () => {
   const pool = [target, ...factors.map(([id, f]) => valve(id, individual(base, f), c))];
 
   it('ranks the pool by distance, nearest first, ties by id, leaving the valve out', () => {
-    const ranked = findPartners(target, pool, c);
+    const ranked = partners(target, pool, c);
     expect(ranked.map((p) => p.id)).toEqual(['p1a', 'p1b', 'p3', 'p5', 'p20']);
     expect(ranked[0].distance.distancePercent).toBeCloseTo(exactPercent(1.01), 6);
     expect(ranked[2].distance.distancePercent).toBeCloseTo(exactPercent(1 / 0.97), 6);
@@ -49,14 +55,29 @@ describe('finding a partner', () => {
   });
 
   it('says which candidates make an acceptable pair under the tolerance, and why not', () => {
-    const ranked = findPartners(target, pool, c);
+    const ranked = partners(target, pool, c);
     expect(ranked.map((p) => p.withinTolerance)).toEqual([true, true, true, true, false]);
     expect(ranked[4].exceeds).toContain('Ia at idle: 18.2 % (tolerance 5 %)');
   });
 
   it('returns at most the number asked for, and nothing from an empty pool', () => {
-    expect(findPartners(target, pool, c, 2).map((p) => p.id)).toEqual(['p1a', 'p1b']);
-    expect(findPartners(target, [], c)).toEqual([]);
-    expect(findPartners(target, [target], c)).toEqual([]);
+    expect(partners(target, pool, c, 2).map((p) => p.id)).toEqual(['p1a', 'p1b']);
+    expect(partners(target, [], c)).toEqual([]);
+    expect(partners(target, [target], c)).toEqual([]);
+  });
+
+  it('refuses a valve the criteria rule out, saying why', () => {
+    const r = resolveCriteria({
+      valveType: '12AX7',
+      operatingPoints: [{ vaVolts: 250, vg1Volts: -2 }],
+      sections: 'both',
+      groupSize: 2,
+    });
+    if (!r.ok) throw new Error(r.reason);
+    const single = valve('s', publishedLaw('12AX7'), r.criteria);
+    expect(findPartners(single, [single], r.criteria)).toEqual({
+      ok: false,
+      reason: 'Valve s cannot be matched: section 2 was not measured, and the criteria need it',
+    });
   });
 });

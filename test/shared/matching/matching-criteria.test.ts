@@ -96,6 +96,9 @@ describe('matching criteria', () => {
     expect(reason({ valveType: '12AX7', iaWeight: 0, gmWeight: 0, groupSize: 2 })).toBe(
       'at least one of the Ia, gm and curve weights must be above 0',
     );
+    expect(reason({ valveType: 'EL34', sections: 'both', groupSize: 2 })).toBe(
+      'EL34 has one section: section matching and balance do not apply',
+    );
     expect(reason({ valveType: '12AX7', tolerancePercent: 0, groupSize: 2 })).toBe(
       'the tolerance must be above 0 %; got 0',
     );

@@ -129,7 +129,8 @@ describe('section balance', () => {
     ];
     const rank = (c: ResolvedCriteria) => {
       const fs = valves.map((v) => features(v, c));
-      return findPartners(fs[0], fs, c).map((p) => p.id);
+      const r = findPartners(fs[0], fs, c);
+      return r.ok ? r.partners.map((p) => p.id) : [];
     };
     expect(rank(plain)).toEqual(['a', 'b']);
     expect(rank(weighted)).toEqual(['b', 'a']);
