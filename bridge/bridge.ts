@@ -2,9 +2,11 @@ import { createHash } from 'node:crypto';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { DeviceCapabilities } from '../shared/domain/sweep';
+import type { DeviceExtensions } from '../shared/protocol/check-plan';
 import type { BenchDeviceStatus, HubToBridge } from '../shared/hub/messages';
 import type { DeviceMessage } from '../shared/protocol/messages';
 import { Backoff } from './backoff';
+import { CheckControl } from './check-control';
 import { DeviceLink } from './device-link';
 import type { DeviceEndpoint } from './device-transport';
 import { HubLink } from './hub-link';
@@ -63,6 +65,10 @@ export interface Bridge {
   readonly hubConnected: boolean;
   /** Sweep the bridge is starting or running, or null. */
   readonly activeSweepId: number | null;
+  /** Check (quick-test step) the bridge is starting or running, or null. */
+  readonly activeCheckId: number | null;
+  /** Optional tracer functions from its EXT answer, or null. */
+  readonly extensions: DeviceExtensions | null;
   /** The journal of unacknowledged points and ends. */
   readonly journal: Journal;
   /** Switches the tracer's outputs off, ends a running sweep, and closes both links. */
@@ -105,6 +111,7 @@ export function startBridge(options: BridgeOptions): Bridge {
 
   let stopped = false;
   let sweeps: SweepControl;
+  let checks: CheckControl;
   const device = new DeviceLink({
     endpoint,
     log,
@@ -119,13 +126,25 @@ export function startBridge(options: BridgeOptions): Bridge {
         // Whatever a previous session left running, the bench starts from outputs off.
         device.send({ type: 'off' });
         device.send({ type: 'status' });
+        // A tracer with optional functions answers; one without stays silent (PROTOCOL.md).
+        device.queryExtensions();
         if (hub.connected) sendHello();
       },
       message: (m: DeviceMessage) => {
-        if (!stopped) sweeps.onDeviceMessage(m);
+        if (stopped) return;
+        if (m.type === 'heartbeat') checks.onDeviceMessage(m);
+        if (m.type !== 'heartbeat' && checks.claims(m)) checks.onDeviceMessage(m);
+        else sweeps.onDeviceMessage(m);
       },
       down: (reason) => {
-        if (!stopped) sweeps.onDeviceDown(reason);
+        if (stopped) return;
+        checks.onDeviceDown(reason);
+        sweeps.onDeviceDown(reason);
+      },
+      extensions: (ext) => {
+        if (stopped) return;
+        log(`tracer: optional functions: ${ext.features.join(', ') || 'none'}`);
+        if (hub.connected) sendHello();
       },
     },
   });
@@ -143,13 +162,21 @@ export function startBridge(options: BridgeOptions): Bridge {
         sender.restart();
       },
       message: (m: HubToBridge) => {
-        if (!stopped) sweeps.onHubMessage(m);
+        if (stopped) return;
+        if (m.type === 'start-check' || m.type === 'abort-check') checks.onHubMessage(m);
+        else sweeps.onHubMessage(m);
       },
       invalid: (raw, problem) => {
-        if (!stopped) sweeps.onInvalidHubMessage(raw, problem);
+        if (stopped) return;
+        const r = (raw ?? {}) as { type?: unknown; checkId?: unknown };
+        if (r.type === 'start-check' || r.type === 'abort-check') {
+          checks.onInvalidHubMessage(r, problem);
+        } else sweeps.onInvalidHubMessage(raw, problem);
       },
       closed: (reason) => {
-        if (!stopped) sweeps.onHubLost(reason);
+        if (stopped) return;
+        checks.onHubLost();
+        sweeps.onHubLost(reason);
       },
     },
   });
@@ -166,6 +193,15 @@ export function startBridge(options: BridgeOptions): Bridge {
     log,
     sendToHub: (m) => hub.send(m),
     commandTimeoutMs: options.commandTimeoutMs ?? 3000,
+    activeCheckId: () => checks.activeCheckId,
+  });
+  checks = new CheckControl({
+    device,
+    log,
+    sendToHub: (m) => hub.send(m),
+    reportStatus: () => sweeps.reportStatus(),
+    activeSweepId: () => sweeps.activeSweepId,
+    commandTimeoutMs: options.commandTimeoutMs ?? 3000,
   });
 
   function sendHello(): void {
@@ -174,6 +210,7 @@ export function startBridge(options: BridgeOptions): Bridge {
       bridgeVersion: BRIDGE_VERSION,
       capabilities: device.caps,
       status: sweeps.status(),
+      extensions: device.extensions,
     });
   }
 
@@ -196,9 +233,16 @@ export function startBridge(options: BridgeOptions): Bridge {
     get activeSweepId() {
       return sweeps.activeSweepId;
     },
+    get activeCheckId() {
+      return checks.activeCheckId;
+    },
+    get extensions() {
+      return device.extensions;
+    },
     journal,
     async stop() {
       if (stopped) return;
+      checks.shutDown();
       sweeps.shutDown();
       stopped = true;
       sender.flush();

@@ -1,4 +1,5 @@
 import type { DeviceCapabilities } from '../shared/domain/sweep';
+import type { DeviceExtensions } from '../shared/protocol/check-plan';
 import { frame } from '../shared/protocol/checksum';
 import { DeviceStreamDecoder } from '../shared/protocol/decoder';
 import { emptyStats, type LineStats } from '../shared/protocol/line-reader';
@@ -24,6 +25,8 @@ export interface DeviceLinkEvents {
   message(m: DeviceMessage): void;
   /** A ready link went down; it reconnects by itself. */
   down(reason: string): void;
+  /** The tracer answered EXT with its optional functions. */
+  extensions?(extensions: DeviceExtensions): void;
 }
 
 /** Settings of a device link; every timing has the default shown. */
@@ -67,6 +70,7 @@ export class DeviceLink {
   private lastOpenError = '';
   private versionRefused = false;
   private capabilities: DeviceCapabilities | null = null;
+  private ext: DeviceExtensions | null = null;
   private readonly backoff: Backoff;
   private readonly name: string;
 
@@ -83,6 +87,19 @@ export class DeviceLink {
   /** Capabilities from the last successful handshake, or null before one. */
   get caps(): DeviceCapabilities | null {
     return this.capabilities;
+  }
+
+  /**
+   * Optional functions the tracer announced in answer to EXT on this connection; null before
+   * the answer, and for a tracer with none (it never answers).
+   */
+  get extensions(): DeviceExtensions | null {
+    return this.ext;
+  }
+
+  /** Asks a ready tracer for its optional functions; the answer arrives as `extensions`. */
+  queryExtensions(): void {
+    this.send({ type: 'extensions' });
   }
 
   /** Line counters over every connection so far. */
@@ -178,7 +195,10 @@ export class DeviceLink {
     for (const m of this.decoder.push(chunk)) {
       this.lastHeardAt = Date.now();
       if (this.state === 'handshake') this.onHandshakeMessage(m);
-      else if (this.state === 'ready') this.options.events.message(m);
+      else if (this.state === 'ready' && m.type === 'extensions') {
+        this.ext = m.extensions;
+        this.options.events.extensions?.(m.extensions);
+      } else if (this.state === 'ready') this.options.events.message(m);
       // The owner may have closed the link while handling a message.
       if (this.state !== 'handshake' && this.state !== 'ready') return;
     }
@@ -240,6 +260,7 @@ export class DeviceLink {
     this.clearTimers();
     this.connection++;
     this.transport = null;
+    this.ext = null;
     this.earlierStats = this.lineStats;
     this.decoder = new DeviceStreamDecoder();
     this.state = 'closed';

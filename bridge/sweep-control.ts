@@ -50,6 +50,8 @@ export interface SweepControlDeps {
   sendToHub: (m: BridgeToHub) => boolean;
   /** Wait for the tracer to answer HTR, SWP or ABT, ms. */
   commandTimeoutMs: number;
+  /** Check (quick-test step) the bench is running, or null: a sweep then waits its turn. */
+  activeCheckId?: () => number | null;
 }
 
 /** How long an END of a trip or fault waits for the ERR that explains it, ms. */
@@ -97,7 +99,13 @@ export class SweepControl {
       warmupLeftSeconds: beat?.warmupLeftSeconds ?? 0,
       sweepId: a && (a.phase === 'running' || a.phase === 'aborting') ? a.sweepId : null,
       lineStats: this.deps.device.lineStats,
+      checkId: this.deps.activeCheckId?.() ?? null,
     };
+  }
+
+  /** Sends the status to the hub now. */
+  reportStatus(): void {
+    this.sendStatus();
   }
 
   /** A message from the ready tracer. */
@@ -195,6 +203,10 @@ export class SweepControl {
       case 'ack-end':
         this.deps.journal.ackEnd(m.sweepId);
         break;
+      case 'start-check':
+      case 'abort-check':
+        // CheckControl's; the bridge routes them there.
+        break;
     }
   }
 
@@ -226,6 +238,11 @@ export class SweepControl {
     }
     if (this.active) {
       this.refuse(sweepId, `the bench is busy with sweep ${this.active.sweepId}`);
+      return;
+    }
+    const check = this.deps.activeCheckId?.() ?? null;
+    if (check !== null) {
+      this.refuse(sweepId, `the bench is busy with quick-test check ${check}`);
       return;
     }
     const caps = device.caps;

@@ -1,6 +1,7 @@
 import { createServer, type Server, type Socket } from 'node:net';
 import { SerialPort } from 'serialport';
 import type { DeviceCapabilities, SweepPlan } from '../../shared/domain/sweep';
+import type { DeviceExtensions } from '../../shared/protocol/check-plan';
 import { frame } from '../../shared/protocol/checksum';
 import { CommandStreamDecoder } from '../../shared/protocol/decoder';
 import {
@@ -40,7 +41,13 @@ export interface FakeTracerOptions {
   silentOnSweep?: boolean;
   /** Automatic heartbeat period, ms (default 500). */
   heartbeatMs?: number;
+  /** Optional functions it answers EXT with; without, it ignores EXT (a core-only tracer). */
+  extensions?: DeviceExtensions;
+  /** Answer LKG, EMI and GAS with this NAK instead of an ACK. */
+  refuseCheck?: { code: DeviceErrorCode; text: string };
 }
+
+type CheckStart = Extract<HostCommand, { type: 'leakage' | 'emission' | 'grid-current' }>;
 
 /** A command as the fake tracer received it, with its arrival time. */
 export interface Received {
@@ -59,6 +66,8 @@ export class FakeTracer {
   heaterVolts = 0;
   highVoltage = false;
   sweep: { id: number; plan: SweepPlan; sent: number } | null = null;
+  /** The check (LKG, EMI, GAS) running, with the result lines sent so far. */
+  check: { id: number; command: CheckStart; sent: number } | null = null;
   private identifiesIgnored = 0;
   private heartbeat: NodeJS.Timeout | null = null;
   private startedAt = Date.now();
@@ -66,7 +75,7 @@ export class FakeTracer {
   private constructor(
     private readonly write: (text: string) => void,
     private readonly closeLink: () => Promise<void>,
-    private readonly options: FakeTracerOptions,
+    readonly options: FakeTracerOptions,
   ) {
     this.heartbeat = setInterval(() => this.beat(), options.heartbeatMs ?? 500);
   }
@@ -173,6 +182,29 @@ export class FakeTracer {
     this.stopSweep();
   }
 
+  /** Sends a result line (LK, EM, GC) of the running check with its id, and counts it. */
+  checkResult(
+    m:
+      | Omit<Extract<DeviceMessage, { type: 'leakage' }>, 'checkId'>
+      | Omit<Extract<DeviceMessage, { type: 'emission' }>, 'checkId'>
+      | Omit<Extract<DeviceMessage, { type: 'grid-current' }>, 'checkId'>,
+  ): void {
+    const c = this.check;
+    if (!c) throw new Error('no check is running on the fake tracer');
+    c.sent++;
+    this.state = 'sweeping';
+    this.highVoltage = true;
+    this.send({ ...m, checkId: c.id } as DeviceMessage);
+  }
+
+  /** Ends the running check as the tracer would. */
+  finishCheck(reason: 'complete' | 'limit' | 'fault' = 'complete', count?: number): void {
+    const c = this.check;
+    if (!c) throw new Error('no check is running on the fake tracer');
+    this.send({ type: 'end', sweepId: c.id, reason, count: count ?? c.sent });
+    this.stopSweep();
+  }
+
   /** Sends one heartbeat now. */
   beat(): void {
     this.send({
@@ -241,6 +273,10 @@ export class FakeTracer {
           this.send({ type: 'end', sweepId: c.sweepId, reason: 'aborted', count: this.sweep.sent });
           this.stopSweep();
         }
+        if (this.check?.id === c.sweepId) {
+          this.send({ type: 'end', sweepId: c.sweepId, reason: 'aborted', count: this.check.sent });
+          this.stopSweep();
+        }
         return;
       case 'off':
         this.send({ type: 'ack', command: 'OFF' });
@@ -252,17 +288,45 @@ export class FakeTracer {
             count: this.sweep.sent,
           });
         }
+        if (this.check) {
+          this.send({
+            type: 'end',
+            sweepId: this.check.id,
+            reason: 'aborted',
+            count: this.check.sent,
+          });
+        }
         this.stopSweep();
         this.heaterVolts = 0;
         return;
       case 'zero':
         this.send({ type: 'zeroed', iaOffsetMilliamps: 0, ig2OffsetMilliamps: 0 });
         return;
+      case 'extensions':
+        if (this.options.extensions) {
+          this.send({ type: 'extensions', extensions: this.options.extensions });
+        }
+        return;
+      case 'leakage':
+      case 'emission':
+      case 'grid-current': {
+        const tag = { leakage: 'LKG', emission: 'EMI', 'grid-current': 'GAS' }[c.type];
+        if (this.options.refuseCheck) {
+          this.send({ type: 'nak', command: tag, ...this.options.refuseCheck });
+          return;
+        }
+        this.check = { id: c.checkId, command: c, sent: 0 };
+        this.heaterVolts = c.plan.heaterVolts;
+        this.state = 'warming';
+        this.send({ type: 'ack', command: tag, sweepId: c.checkId });
+        return;
+      }
     }
   }
 
   private stopSweep(): void {
     this.sweep = null;
+    this.check = null;
     this.state = 'idle';
     this.highVoltage = false;
   }
