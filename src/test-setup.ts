@@ -26,3 +26,7 @@ if (typeof window.matchMedia !== 'function') {
     }),
   });
 }
+
+// The first harness test of a file compiles Material's styles and templates on a cold worker;
+// on a busy two-core machine that alone can pass Vitest's 5 s default.
+vi.setConfig({ testTimeout: 30_000 });

@@ -24,6 +24,7 @@ import { BenchPage } from './bench-page';
 class LiveStub {
   readonly benches = signal<BenchView[] | null>([benchView({}, 7)]);
   readonly connected = signal(true);
+  readonly linkDown = signal(false);
   readonly lastError = signal(null);
   readonly aborted: number[] = [];
   readonly watched: number[] = [];

@@ -82,7 +82,8 @@ export class BenchPage {
   protected readonly benches = computed<readonly BenchView[]>(
     () => this.live.benches() ?? this.restBenches() ?? [],
   );
-  protected readonly connected = this.live.connected;
+  private readonly connected = this.live.connected;
+  protected readonly linkDown = this.live.linkDown;
 
   private readonly chosenBenchId = signal<number | null>(null);
   protected readonly bench = computed(() => {

@@ -5,6 +5,7 @@ import type { BrowserToHub, HubToBrowser } from '../../../shared/hub/messages';
 import { benchView, storeSession, sweepView } from '../../testing/fixtures';
 import { Auth } from './auth';
 import {
+  LINK_DOWN_GRACE_MS,
   LIVE_RECONNECT_MS,
   LiveConnection,
   WEB_SOCKET_CTOR,
@@ -162,5 +163,24 @@ describe('LiveConnection', () => {
     socket.accept();
     expect(live.abortSweep(7)).toBe(true);
     expect(socket.sent).toEqual([{ type: 'abort-sweep', sweepId: 7 }]);
+  });
+
+  it('reports the link as down only after it has stayed down for the grace period', async () => {
+    const socket = await nextSocket(0);
+    socket.accept();
+    vi.useFakeTimers();
+    try {
+      socket.finish(false);
+      expect(live.linkDown()).toBe(false);
+      vi.advanceTimersByTime(LINK_DOWN_GRACE_MS - 1);
+      expect(live.linkDown()).toBe(false);
+      vi.advanceTimersByTime(1);
+      expect(live.linkDown()).toBe(true);
+      // The reconnection attempt ran on the fake clock; the hub takes it.
+      latest().accept();
+      expect(live.linkDown()).toBe(false);
+    } finally {
+      vi.useRealTimers();
+    }
   });
 });

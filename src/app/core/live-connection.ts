@@ -17,6 +17,9 @@ export const LIVE_RECONNECT_MS = new InjectionToken<number>('LIVE_RECONNECT_MS',
   factory: () => 1000,
 });
 
+/** How long the socket may be down before the user is told, ms. */
+export const LINK_DOWN_GRACE_MS = 3000;
+
 /** Hub messages about one sweep. */
 export type SweepMessage = Extract<HubToBrowser, { type: 'sweep' } | { type: 'points' }>;
 
@@ -41,8 +44,16 @@ export class LiveConnection {
   private readonly benchesState = signal<BenchView[] | null>(null);
   private readonly lastErrorState = signal<{ code: string; message: string } | null>(null);
 
+  private readonly linkDownState = signal(false);
+  private linkDownTimer: ReturnType<typeof setTimeout> | null = null;
+
   /** Whether the socket is open. */
   readonly connected = this.connectedState.asReadonly();
+  /**
+   * Whether the socket has been down for a while (LINK_DOWN_GRACE_MS): worth telling the user,
+   * unlike the moment of connecting after a page load.
+   */
+  readonly linkDown = this.linkDownState.asReadonly();
   /** Benches as the hub last reported them, or null before the first report. */
   readonly benches = this.benchesState.asReadonly();
   /** The last error message the hub sent on the socket. */
@@ -67,7 +78,11 @@ export class LiveConnection {
         return;
       }
       const sub = untracked(() => this.messages$.subscribe((m) => this.handle(m)));
-      onCleanup(() => sub.unsubscribe());
+      onCleanup(() => {
+        sub.unsubscribe();
+        this.clearLinkDownTimer();
+        this.linkDownState.set(false);
+      });
     });
   }
 
@@ -125,18 +140,36 @@ export class LiveConnection {
       openObserver: {
         next: () => {
           this.connectedState.set(true);
+          this.clearLinkDownTimer();
+          this.linkDownState.set(false);
           // Queued by the subject and flushed right after this callback.
           for (const sweepId of this.watchers.keys()) socket.next({ type: 'watch-sweep', sweepId });
         },
       },
       closeObserver: {
         next: () => {
-          if (this.socket === socket) this.connectedState.set(false);
+          if (this.socket !== socket) return;
+          this.connectedState.set(false);
+          this.startLinkDownTimer();
         },
       },
     });
     this.socket = socket;
+    if (!this.connectedState()) this.startLinkDownTimer();
     return socket;
+  }
+
+  private startLinkDownTimer(): void {
+    if (this.linkDownTimer) return;
+    this.linkDownTimer = setTimeout(() => {
+      this.linkDownTimer = null;
+      if (!this.connectedState()) this.linkDownState.set(true);
+    }, LINK_DOWN_GRACE_MS);
+  }
+
+  private clearLinkDownTimer(): void {
+    if (this.linkDownTimer) clearTimeout(this.linkDownTimer);
+    this.linkDownTimer = null;
   }
 
   private handle(message: HubToBrowser): void {
