@@ -242,7 +242,7 @@ export function defaultPlan(t: ValveTypeData): SweepPlan {
   const step = niceStep(gridSpan / 9);
   const curves = Math.min(12, Math.floor(gridSpan / step + 1e-9) + 1);
   // Grid supplies of home-built tracers commonly reach -100 V; deeper curves are left out.
-  const vg1Volts = Array.from({ length: curves }, (_, i) => round2(-i * step)).filter((v) => v >= -100);
+  const vg1Volts = Array.from({ length: curves }, (_, i) => round2(-i * step) || 0).filter((v) => v >= -100);
   const paMax = round2(t.ratings.paMaxWatts * 0.75);
   const iaMax = Math.min(round2(Math.max(op.iaMilliamps * 2.5, (paMax * 1000) / vaStop)), 250);
   return {
