@@ -1,5 +1,6 @@
 import type { SweepPoint } from '../../../shared/domain/sweep';
 import { korenCurrents, type KorenModel } from '../../../shared/analysis/koren-model';
+import type { AnodeSurface } from '../../../shared/analysis/anode-surface';
 
 /** A seeded uniform generator on [0, 1) (mulberry32), so noisy fixtures are reproducible. */
 export function seededRandom(seed: number): () => number {
@@ -150,4 +151,27 @@ export function shuffled<T>(items: readonly T[], seed: number): T[] {
     [out[i], out[j]] = [out[j], out[i]];
   }
   return out;
+}
+
+/** A valve law as an analysis surface over a stated region (refusing outside, like data). */
+export function lawSurface(
+  law: ValveLaw,
+  region: { vaMaxVolts: number; vg1MinVolts: number; vg1MaxVolts: number; vg2Volts?: number },
+): AnodeSurface {
+  const vg2 = region.vg2Volts ?? 0;
+  const inGrid = (vg1: number) => vg1 >= region.vg1MinVolts && vg1 <= region.vg1MaxVolts;
+  return {
+    vg1Range: () => ({ minVolts: region.vg1MinVolts, maxVolts: region.vg1MaxVolts }),
+    vaRangeAt: (vg1) =>
+      inGrid(vg1)
+        ? { ok: true, minVolts: 0, maxVolts: region.vaMaxVolts }
+        : { ok: false, reason: `Vg1 ${vg1} V outside the test region` },
+    currentsAt: (va, vg1) => {
+      if (!inGrid(vg1) || va < 0 || va > region.vaMaxVolts) {
+        return { ok: false, reason: `(${va} V, ${vg1} V) outside the test region` };
+      }
+      const c = law(va, vg1, vg2);
+      return { ok: true, iaMilliamps: c.ia, ig2Milliamps: c.ig2 };
+    },
+  };
 }
