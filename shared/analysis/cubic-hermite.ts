@@ -7,9 +7,3 @@ export function hermiteBasis(t: number): [number, number, number, number] {
   const t3 = t2 * t;
   return [2 * t3 - 3 * t2 + 1, t3 - 2 * t2 + t, -2 * t3 + 3 * t2, t3 - t2];
 }
-
-/** Derivatives of the Hermite basis functions with respect to t. */
-export function hermiteBasisSlope(t: number): [number, number, number, number] {
-  const t2 = t * t;
-  return [6 * t2 - 6 * t, 3 * t2 - 4 * t + 1, -6 * t2 + 6 * t, 3 * t2 - 2 * t];
-}

@@ -26,20 +26,21 @@ export function invertHankel(
       if (Math.abs(m[r * w + col]) > Math.abs(m[pivot * w + col])) pivot = r;
     }
     if (!(Math.abs(m[pivot * w + col]) > scale * 1e-15)) return false;
+    // Only columns 0..n-1 (the matrix) and 6..6+n-1 (the growing inverse) are in use.
     if (pivot !== col) {
-      for (let c = 0; c < w; c++) {
+      for (let c = 0; c < 6 + n; c = c === n - 1 ? 6 : c + 1) {
         const tmp = m[col * w + c];
         m[col * w + c] = m[pivot * w + c];
         m[pivot * w + c] = tmp;
       }
     }
     const p = 1 / m[col * w + col];
-    for (let c = 0; c < w; c++) m[col * w + c] *= p;
+    for (let c = 0; c < 6 + n; c = c === n - 1 ? 6 : c + 1) m[col * w + c] *= p;
     for (let r = 0; r < n; r++) {
       if (r === col) continue;
       const f = m[r * w + col];
       if (f === 0) continue;
-      for (let c = 0; c < w; c++) m[r * w + c] -= f * m[col * w + c];
+      for (let c = 0; c < 6 + n; c = c === n - 1 ? 6 : c + 1) m[r * w + c] -= f * m[col * w + c];
     }
   }
   out.fill(0);

@@ -3,7 +3,7 @@ import type { SweepPoint } from '../domain/sweep';
 import { korenGradient } from './koren-gradient';
 import { korenCurrents, type KorenModel } from './koren-model';
 import { invertMatrix } from './invert-matrix';
-import { formatNumber, refuse, type Refusal } from './refusal';
+import { refuse, type Refusal } from './refusal';
 
 /** Names of the Koren parameters, as in the model's parameter object. */
 export type KorenParamName = 'mu' | 'ex' | 'kg1' | 'kp' | 'kvb' | 'kg2';
@@ -205,15 +205,4 @@ function fitScreen(
   const sse = used.reduce((acc, [f, v]) => acc + (v - a * f) ** 2, 0);
   const sdA = Math.sqrt(sse / (used.length - 1) / sxx);
   return { kg2: 1000 / a, uncertainty: (1000 * sdA) / (a * a) };
-}
-
-/** A short human summary of a fit, e.g. for a log line. */
-export function describeKorenFit(fit: KorenFit): string {
-  const p = fit.model.params;
-  return (
-    `Koren ${fit.model.kind}: MU ${formatNumber(p.mu)}, EX ${formatNumber(p.ex)}, ` +
-    `KG1 ${formatNumber(p.kg1)}, KP ${formatNumber(p.kp)}, KVB ${formatNumber(p.kvb)}` +
-    ('kg2' in p ? `, KG2 ${formatNumber(p.kg2)}` : '') +
-    `; RMS error ${formatNumber(fit.rmsErrorPercent)} % of ${formatNumber(fit.fullScaleMilliamps)} mA`
-  );
 }

@@ -42,14 +42,17 @@ export function polynomialAtZero(
   let largest = 0;
   for (let i = 0; i < n; i++) largest = Math.max(largest, u[i]);
   const floor = largest > 0 ? largest * 1e-9 : 1;
+  // Degrees from 1 up, stopping one past the first the uncertainties accept (its gap needs it).
   const fits: DegreeFit[] = [];
+  let chosen = -1;
   for (let degree = 1; degree <= n - 1; degree++) {
     const fit = fitDegree(x, y, u, n, degree, floor);
     if (!fit) break;
     fits.push(fit);
+    if (chosen >= 0) break;
+    if (fit.chiSquarePerDof <= 2) chosen = fits.length - 1;
   }
   if (fits.length === 0) return null;
-  let chosen = fits.findIndex((f) => f.chiSquarePerDof <= 2);
   if (chosen < 0) chosen = fits.length - 1;
   const f = fits[chosen];
   const other = fits[chosen + 1] ?? fits[chosen - 1] ?? f;
