@@ -52,10 +52,13 @@ const WINDOW_MEDIAN_RADIUS = 2;
 const MIN_OWN_RESIDUALS = 8;
 
 /**
- * One measured curve y(x), smoothed: a LOESS cubic fitted around every measured abscissa (its
- * window widened until the slope's noise is small against the slope), joined by cubic Hermite
- * pieces through the fitted values and slopes. The local fit gives derivatives with a known
- * noise gain and a low bias; the Hermite join makes evaluation between points cheap and C1.
+ * One measured curve y(x), smoothed: a LOESS cubic (tricube weights) fitted around every
+ * measured abscissa, its window chosen from the data (see chooseWindows: narrow on clean data,
+ * wide on noisy data, never across a bend the noise does not hide), joined by cubic Hermite
+ * pieces through the fitted values and slopes. Written here because no maintained npm package
+ * offers local polynomial fits with derivative noise gains; a monotone spline (PCHIP) alone
+ * would pass the noise straight into the slopes. The local fit gives derivatives with a known
+ * noise gain and low bias; the Hermite join makes evaluation between readings cheap.
  */
 export class SmoothedCurve {
   /** Measured spans, split at gaps, ascending. */
@@ -223,17 +226,6 @@ export class SmoothedCurve {
       slopeUncertainty: (1 - t) * this.slopeUnc[lo] + t * this.slopeUnc[hi],
       z: h00 * z[lo] + h10 * dx * zd[lo] + h01 * z[hi] + h11 * dx * zd[hi],
     };
-  }
-
-  /** Smallest and largest smoothed value over the measured spans. */
-  valueRange(): { lo: number; hi: number } {
-    let lo = Infinity;
-    let hi = -Infinity;
-    for (const v of this.values) {
-      lo = Math.min(lo, v);
-      hi = Math.max(hi, v);
-    }
-    return { lo, hi };
   }
 
   /**

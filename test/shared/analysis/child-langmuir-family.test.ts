@@ -75,6 +75,22 @@ describe('an anode family of the ideal (Child-Langmuir) triode', () => {
         expect(worst.muFromGmRa).toBeLessThan(0.005);
       });
 
+      it('finds the grid voltage that gives a current at a Va, and the same figures there', () => {
+        const built = buildAnodeFamily(sampleFamily(law, f.plan, 13));
+        if (!built.ok) throw new Error(built.reason);
+        for (const [va, vg] of points) {
+          const byCurrent = built.family.operatingPointAtCurrent(va, exact(f.k, f.mu, va, vg).ia);
+          if (!byCurrent.ok) throw new Error(byCurrent.reason);
+          // dVg1 = dIa/gm: 0.1 % of the current is well under a millivolt here.
+          expect(Math.abs(byCurrent.vg1Volts.value - vg)).toBeLessThan(2e-3);
+          const e = exact(f.k, f.mu, va, byCurrent.vg1Volts.value);
+          expect(Math.abs(byCurrent.gmMicrosiemens.value / e.gmMicrosiemens - 1)).toBeLessThan(
+            0.005,
+          );
+          expect(Math.abs(byCurrent.raKiloohms.value / e.raKiloohms - 1)).toBeLessThan(0.005);
+        }
+      });
+
       it('gives them within 3 % with tracer noise on a fine sweep', () => {
         // Noise: sigma 0.2 % of full scale plus 12-bit quantisation (see sampleFamily); Va in
         // 2 V mean steps, about 150 readings per curve.
