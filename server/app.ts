@@ -11,7 +11,17 @@ import { registerSystemRoutes } from './http/system.routes';
 import type { HubServices } from './hub-services';
 import { ROUTES, type ApiMount } from './route-table';
 import { registerSweepRoutes } from './sweeps/sweep.routes';
+import { registerSettingsRoutes } from './settings/settings.routes';
+import { createSettingsService } from './settings/settings.service';
+import { PhotoStore } from './uploads/photo-store';
+import { registerPhotoRoutes } from './uploads/photo.routes';
+import { createPhotoService } from './uploads/photo.service';
+import { uploadsDirOf } from './uploads/uploads-dir';
 import { registerValveTypeRoutes } from './valve-types/valve-type.routes';
+import { createValveTypeService } from './valve-types/valve-type.service';
+import { refreshFiguresOfType } from './valves/refresh-sweep-figures';
+import { registerValveRoutes } from './valves/valve.routes';
+import { createValveService } from './valves/valve.service';
 
 /** What the Express app is built from. */
 export interface AppDeps {
@@ -20,10 +30,16 @@ export interface AppDeps {
   version: string;
   /** Built Angular app; served with a history fallback when the directory exists. */
   staticDir: string | null;
+  /** Where photos are stored; default `uploads` beside the database file (DATA_DIR/uploads). */
+  uploadsDir?: string;
+  /** The app's public address for links in printed labels; default env PUBLIC_URL, else the
+   * address each request came to. */
+  publicUrl?: string | null;
 }
 
 /** Builds the Express app (REST API and static files) without listening. */
-export function createApp({ services, version, staticDir }: AppDeps): Express {
+export function createApp(deps: AppDeps): Express {
+  const { services, version, staticDir } = deps;
   const app = express();
   app.use(
     helmet({
@@ -39,7 +55,27 @@ export function createApp({ services, version, staticDir }: AppDeps): Express {
   const api = express.Router();
   registerSystemRoutes(api, mount, services.db, version);
   registerAuthRoutes(api, mount, services.auth);
-  registerValveTypeRoutes(api, mount);
+  const { db, audit } = services;
+  const types = createValveTypeService({
+    db,
+    audit,
+    referenceChanged: (typeId) => refreshFiguresOfType(db, typeId),
+  });
+  let uploadsDir: Promise<string> | null = null;
+  const store = new PhotoStore(() => {
+    uploadsDir ??= deps.uploadsDir ? Promise.resolve(deps.uploadsDir) : uploadsDirOf(db);
+    return uploadsDir;
+  });
+  const photos = createPhotoService({ db, audit, store });
+  const valves = createValveService({
+    db,
+    audit,
+    photoFiles: { ofValve: (id) => photos.filesOfValve(id), remove: photos.removeFiles },
+  });
+  registerValveTypeRoutes(api, mount, types);
+  registerValveRoutes(api, mount, valves, deps.publicUrl ?? (process.env.PUBLIC_URL || null));
+  registerPhotoRoutes(api, mount, photos);
+  registerSettingsRoutes(api, mount, createSettingsService({ db, audit }));
   registerBenchRoutes(api, mount, services.benches);
   registerSweepRoutes(api, mount, services.sweeps, services.benches);
   registerAuditRoutes(api, mount, services.audit);

@@ -2,6 +2,16 @@ import SqliteDatabase from 'better-sqlite3';
 import { Kysely, SqliteDialect, type Generated, type Insertable, type Selectable } from 'kysely';
 import type { SweepStatus } from '../../shared/domain/sweep';
 import type { Role } from '../auth/role';
+import type { WorkshopSettingTable } from '../settings/workshop-setting.table';
+import type { AttachmentTable } from '../uploads/attachment.table';
+import type {
+  NominalCurveSetTable,
+  NominalPointTable,
+  TypeOperatingPointTable,
+  TypeRatingsTable,
+  ValveTypeTable,
+} from '../valve-types/valve-type.table';
+import type { SweepFiguresTable, ValveTable } from '../valves/valve.table';
 
 /** Row of `users`. */
 export interface UserTable {
@@ -48,6 +58,8 @@ export interface SweepTable {
   created_at: string;
   started_at: string | null;
   ended_at: string | null;
+  /** Valve record the sweep belongs to, or null. */
+  valve_id: number | null;
 }
 
 /** Row of `sweep_points`: V, V, V, mA, mA. */
@@ -80,6 +92,15 @@ export interface Database {
   sweeps: SweepTable;
   sweep_points: SweepPointTable;
   audit_log: AuditLogTable;
+  valve_types: ValveTypeTable;
+  type_operating_points: TypeOperatingPointTable;
+  type_ratings: TypeRatingsTable;
+  nominal_curve_sets: NominalCurveSetTable;
+  nominal_points: NominalPointTable;
+  valves: ValveTable;
+  sweep_figures: SweepFiguresTable;
+  attachments: AttachmentTable;
+  workshop_settings: WorkshopSettingTable;
 }
 
 export type UserRow = Selectable<UserTable>;

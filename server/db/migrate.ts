@@ -1,12 +1,19 @@
 import { Migrator, type Migration, type MigrationProvider, type MigrationResultSet } from 'kysely';
 import * as initial from '../../migrations/2026-12-01-initial';
+import * as typeLibrary from '../../migrations/2026-12-02-type-library';
+import * as valveRecords from '../../migrations/2026-12-03-valve-records';
 import { loadConfig } from '../config';
 import { isEntryPoint } from '../is-entry-point';
+import { typeLibrarySeed } from '../valve-types/seed-type-library';
 import { openDatabase, type HubDb } from './database';
 
 /** Every migration by name; names sort in the order they run. Static, so tsx and Vitest agree. */
 const MIGRATIONS: Record<string, Migration> = {
   '2026-12-01-initial': initial,
+  '2026-12-02-type-library': typeLibrary,
+  // Data, not schema: fills the new library once from shared/catalog (lives with its feature).
+  '2026-12-02-type-library-seed': typeLibrarySeed,
+  '2026-12-03-valve-records': valveRecords,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };

@@ -17,9 +17,14 @@ export const DEMO_USERS: readonly {
 
 /**
  * Demo benches with fixed tokens, so the stack can start bridges for them. `valve` is what the
- * simulator of that bench holds (TYPE#SEED).
+ * simulator of that bench holds (TYPE#SEED); `label` is that valve's record in the demo stock.
  */
-export const DEMO_BENCHES: readonly { name: string; token: string; valve: string }[] = [
-  { name: 'Bench A', token: 'demo-bench-a-7f3c9e', valve: '12AX7#1' },
-  { name: 'Bench B', token: 'demo-bench-b-2d81aa', valve: 'EL34#4' },
+export const DEMO_BENCHES: readonly {
+  name: string;
+  token: string;
+  valve: string;
+  label: string;
+}[] = [
+  { name: 'Bench A', token: 'demo-bench-a-7f3c9e', valve: '12AX7#1', label: 'KL-0001' },
+  { name: 'Bench B', token: 'demo-bench-b-2d81aa', valve: 'EL34#4', label: 'KL-0009' },
 ];

@@ -7,8 +7,9 @@ import { DEFAULT_BENCH_LIMITS } from '../benches/bench.service';
 import type { HubDb } from '../db/database';
 import type { Logger } from '../http/error-middleware';
 import { DEMO_BENCHES, DEMO_USERS, DEMO_WORKSHOP } from './demo-data';
+import { seedDemoStock } from './seed-demo-stock';
 
-/** Seeds demo users and benches into whichever of the two tables is empty. */
+/** Seeds demo users, benches and valve stock into whichever of those tables is empty. */
 export async function seedDemo(db: HubDb, logger: Logger): Promise<void> {
   const now = new Date().toISOString();
   if ((await countUsers(db)) === 0) {
@@ -39,6 +40,7 @@ export async function seedDemo(db: HubDb, logger: Logger): Promise<void> {
     }
     logger.info('demo benches created');
   }
+  await seedDemoStock(db, logger);
 }
 
 /**

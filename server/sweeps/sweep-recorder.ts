@@ -9,6 +9,7 @@ import type { HubDb } from '../db/database';
 import type { Logger } from '../http/error-middleware';
 import type { BenchPresence } from '../live/bench-presence';
 import type { HubEvents } from '../live/hub-events';
+import { refreshSweepFigures } from '../valves/refresh-sweep-figures';
 import { KeyedTimers } from './keyed-timers';
 import { SeqWatermark } from './seq-watermark';
 import { toSweepView } from './sweep-view';
@@ -72,6 +73,17 @@ export function createSweepRecorder(props: SweepRecorderProps) {
     watermarks.set(sweepId, w); // re-insert: Map order is least recently used first
     if (watermarks.size > WATERMARK_CACHE) watermarks.delete(watermarks.keys().next().value!);
     return w;
+  }
+
+  /**
+   * Once every reported point is stored, the figures of a sweep on a valve record are computed
+   * and kept, so that lists can grade valves without analysing sweeps. Off the path of the
+   * acknowledgement: a failure is logged and the valve's page computes them again.
+   */
+  function computeFigures(sweepId: number): void {
+    refreshSweepFigures(db, sweepId).catch((e) =>
+      logger.error(`sweep ${sweepId}: could not compute its figures`, e),
+    );
   }
 
   async function publish(sweepId: number): Promise<void> {
@@ -155,6 +167,7 @@ export function createSweepRecorder(props: SweepRecorderProps) {
       for (const p of valid) w.add(p.seq);
       if (inserted.length > 0) events.pointsStored(sweepId, inserted);
       const complete = row.reported_count !== null && w.throughSeq + 1 >= row.reported_count;
+      if (complete && inserted.length > 0) computeFigures(sweepId);
       return { throughSeq: w.throughSeq, complete };
     },
 
@@ -200,7 +213,9 @@ export function createSweepRecorder(props: SweepRecorderProps) {
         await updateSweepFrom(db, sweepId, [row.status], { reported_count: count });
       }
       await publish(sweepId);
-      return (await watermark(sweepId)).throughSeq + 1 >= count;
+      const complete = (await watermark(sweepId)).throughSeq + 1 >= count;
+      if (complete) computeFigures(sweepId);
+      return complete;
     },
 
     /** The bridge or device refused the plan. */

@@ -18,5 +18,6 @@ export function toSweepView(row: SweepRecord): SweepView {
     createdAt: row.created_at,
     startedAt: row.started_at,
     endedAt: row.ended_at,
+    valveId: row.valve_id,
   };
 }

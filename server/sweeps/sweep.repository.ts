@@ -136,10 +136,33 @@ export async function listPointSeqs(db: HubDb, sweepId: number): Promise<number[
   return rows.map((r) => r.seq);
 }
 
+/** Every sweep of a valve record, newest first. */
+export function listSweepsOfValve(db: HubDb, valveId: number): Promise<SweepRecord[]> {
+  return selectSweeps(db)
+    .where('sweeps.valve_id', '=', valveId)
+    .orderBy('sweeps.created_at', 'desc')
+    .orderBy('sweeps.id', 'desc')
+    .execute();
+}
+
+/** Gives the sweeps of a valve record its new label, so that they are found by it. */
+export async function relabelSweepsOfValve(
+  db: HubDb,
+  valveId: number,
+  label: string,
+): Promise<void> {
+  await db
+    .updateTable('sweeps')
+    .set({ valve_label: label })
+    .where('valve_id', '=', valveId)
+    .execute();
+}
+
 /** Filter, sort and page of the sweep list. Sort columns are SQL names. */
 export interface SweepListFilter {
   status?: SweepStatus;
   benchId?: number;
+  valveId?: number;
   /** Substring of valve label or type. */
   search?: string;
   sortColumn: 'created_at' | 'status' | 'valve_type' | 'point_count';
@@ -156,6 +179,7 @@ export async function listSweeps(
   let q = selectSweeps(db);
   if (f.status) q = q.where('sweeps.status', '=', f.status);
   if (f.benchId) q = q.where('sweeps.bench_id', '=', f.benchId);
+  if (f.valveId) q = q.where('sweeps.valve_id', '=', f.valveId);
   if (f.search) {
     const pattern = `%${f.search.replace(/[\\%_]/g, (c) => '\\' + c)}%`;
     q = q.where((eb) =>

@@ -15,6 +15,9 @@ export function registerSweepRoutes(
   mount(router, 'POST /api/sweeps', ({ body, user }) => sweeps.start(body, user));
   mount(router, 'GET /api/sweeps/:id', ({ params }) => sweeps.detail(params.id));
   mount(router, 'POST /api/sweeps/:id/abort', ({ params, user }) => sweeps.abort(params.id, user));
+  mount(router, 'POST /api/sweeps/:id/attach', ({ params, body, user }) =>
+    sweeps.attach(params.id, body, user),
+  );
   mount(router, 'GET /api/sweeps/:id/export', async ({ params, query }, res) => {
     const { points, ...sweep } = await sweeps.detail(params.id);
     const bench = await benches.get(sweep.benchId);

@@ -27,10 +27,26 @@ export const startSweepBody = z.strictObject({
   plan: sweepPlanSchema,
   valveType: z.string().trim().min(1).max(40).optional().describe('Type designation, e.g. 12AX7'),
   valveLabel: z.string().trim().max(80).optional().describe('Label of the valve under test'),
+  valveId: z
+    .number()
+    .int()
+    .positive()
+    .optional()
+    .describe('Valve record under test; its type fills valveType (a different one is refused)'),
   override: z
     .boolean()
     .optional()
     .describe('Admin only: run past the valve type ratings (never past bench or tracer limits)'),
+});
+
+/** Body of POST /api/sweeps/:id/attach. */
+export const attachSweepBody = z.strictObject({
+  valveId: z
+    .number()
+    .int()
+    .positive()
+    .nullable()
+    .describe('Valve record to put the sweep on; null takes it off its record'),
 });
 
 /** Statuses a sweep record can have. */
@@ -54,6 +70,7 @@ export const sweepListQuery = z.object({
   order: z.enum(['asc', 'desc']).default('desc'),
   status: z.enum(SWEEP_STATUSES).optional(),
   benchId: z.coerce.number().int().positive().optional(),
+  valveId: z.coerce.number().int().positive().optional().describe('Only sweeps of this valve'),
   q: z.string().trim().max(80).optional().describe('Search in valve label and type'),
 });
 
@@ -88,6 +105,7 @@ export const sweepViewSchema = z.object({
   createdAt: z.string(),
   startedAt: z.string().nullable(),
   endedAt: z.string().nullable(),
+  valveId: z.number().int().nullable().optional().describe('Valve record, or null'),
 });
 
 /** Answer of GET /api/sweeps/:id. */

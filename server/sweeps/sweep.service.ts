@@ -1,7 +1,6 @@
 import type { z } from 'zod';
 import { limitsFromDevice } from '../../shared/domain/plan-check';
 import type { SweepPoint } from '../../shared/domain/sweep';
-import { findValveType, limitsFromType } from '../../shared/catalog/valve-types';
 import type { SweepView } from '../../shared/hub/messages';
 import type { AuditService } from '../audit/audit.service';
 import type { AuthUser } from '../auth/auth-user';
@@ -13,8 +12,13 @@ import type { BenchPresence } from '../live/bench-presence';
 import type { HubEvents } from '../live/hub-events';
 import { planProblems, type LimitSource } from './sweep-limits';
 import type { SweepRecorder } from './sweep-recorder';
+import { findValveTypeView } from '../valve-types/valve-type.service';
+import { findTypeRecordById } from '../valve-types/valve-type.repository';
+import { limitsOfType, toValveTypeView, type ValveTypeView } from '../valve-types/valve-type-view';
+import { refreshSweepFigures } from '../valves/refresh-sweep-figures';
+import { findValveRow } from '../valves/valve.repository';
 import { toSweepView } from './sweep-view';
-import type { startSweepBody, sweepListQuery } from './sweep.schemas';
+import type { attachSweepBody, startSweepBody, sweepListQuery } from './sweep.schemas';
 import {
   ACTIVE_STATUSES,
   findActiveSweepOfBench,
@@ -22,6 +26,7 @@ import {
   insertSweep,
   listPoints,
   listSweeps,
+  updateSweep,
   type SweepRecord,
 } from './sweep.repository';
 
@@ -55,6 +60,13 @@ export function createSweepService(props: SweepServiceProps) {
     return row;
   }
 
+  async function typeOfValve(typeId: number): Promise<ValveTypeView> {
+    const record = await findTypeRecordById(db, typeId);
+    // valves.valve_type_id is a foreign key: the type exists.
+    if (!record) throw new Error(`valve type ${typeId} is missing`);
+    return toValveTypeView(record);
+  }
+
   return {
     /**
      * Checks a plan against the strictest of bench, tracer and valve-type limits and, if it
@@ -62,12 +74,30 @@ export function createSweepService(props: SweepServiceProps) {
      */
     async start(input: z.output<typeof startSweepBody>, user: AuthUser): Promise<SweepView> {
       const bench = await benches.requireRow(input.benchId);
-      const type = input.valveType === undefined ? undefined : findValveType(input.valveType);
-      if (input.valveType !== undefined && !type) {
+      const valve = input.valveId === undefined ? undefined : await findValveRow(db, input.valveId);
+      if (input.valveId !== undefined && !valve) {
+        throw new HttpError(400, 'validation_failed', `no valve record ${input.valveId}`, {
+          valveId: `no valve record ${input.valveId}`,
+        });
+      }
+      // Ratings come from the type library in the database, so an admin's edit applies at once.
+      const named =
+        input.valveType === undefined ? undefined : await findValveTypeView(db, input.valveType);
+      if (input.valveType !== undefined && !named) {
         throw new HttpError(400, 'validation_failed', `unknown valve type ${input.valveType}`, {
           valveType: `unknown valve type ${input.valveType}`,
         });
       }
+      const ofValve = valve ? await typeOfValve(valve.valve_type_id) : undefined;
+      if (named && ofValve && named.id !== ofValve.id) {
+        throw new HttpError(
+          422,
+          'valve_type_mismatch',
+          `valve ${valve!.label} is a ${ofValve.designation}, not a ${named.designation}`,
+          { valveType: `valve ${valve!.label} is a ${ofValve.designation}` },
+        );
+      }
+      const type = ofValve ?? named;
       if (input.override && !roleAtLeast(user.role, 'admin')) {
         throw new HttpError(403, 'override_forbidden', 'only an admin may override valve ratings');
       }
@@ -85,7 +115,7 @@ export function createSweepService(props: SweepServiceProps) {
         { label: 'tracer limits', limits: limitsFromDevice(capabilities) },
       ];
       const soft: LimitSource[] = type
-        ? [{ label: `${type.designation} maximum ratings`, limits: limitsFromType(type) }]
+        ? [{ label: `${type.designation} maximum ratings`, limits: limitsOfType(type) }]
         : [];
       const fields = planProblems(input.plan, input.override ? hard : [...hard, ...soft]);
       const overridden = input.override ? planProblems(input.plan, soft) : {};
@@ -107,7 +137,8 @@ export function createSweepService(props: SweepServiceProps) {
         sweepId = await insertSweep(db, {
           bench_id: bench.id,
           valve_type: type?.designation ?? null,
-          valve_label: input.valveLabel || null,
+          valve_label: input.valveLabel || valve?.label || null,
+          valve_id: valve?.id ?? null,
           plan_json: JSON.stringify(input.plan),
           operator_id: user.id,
           status: 'pending',
@@ -131,6 +162,7 @@ export function createSweepService(props: SweepServiceProps) {
         benchId: bench.id,
         valveType: type?.designation ?? null,
         valveLabel: input.valveLabel ?? null,
+        valveId: valve?.id ?? null,
         override: input.override === true,
         overriddenRatings: Object.keys(overridden).length > 0 ? overridden : null,
         plan: input.plan,
@@ -175,11 +207,54 @@ export function createSweepService(props: SweepServiceProps) {
       return toSweepView(await requireSweep(id));
     },
 
+    /**
+     * Puts an ended sweep on a valve record, moves it to another, or (valveId null) takes it
+     * off; audited with from and to. The record's type must be the sweep's type.
+     */
+    async attach(
+      id: number,
+      body: z.output<typeof attachSweepBody>,
+      user: AuthUser,
+    ): Promise<SweepView> {
+      const row = await requireSweep(id);
+      if (ACTIVE_STATUSES.includes(row.status)) {
+        throw new HttpError(409, 'sweep_not_ended', `sweep ${id} is still ${row.status}`);
+      }
+      if (row.valve_id === body.valveId) return toSweepView(row);
+      const valve = body.valveId === null ? undefined : await findValveRow(db, body.valveId);
+      if (body.valveId !== null && !valve) throw notFound('valve', body.valveId);
+      const type = valve ? await typeOfValve(valve.valve_type_id) : undefined;
+      const swept = row.valve_type ? await findValveTypeView(db, row.valve_type) : undefined;
+      if (valve && type && row.valve_type && swept?.id !== type.id) {
+        throw new HttpError(
+          422,
+          'valve_type_mismatch',
+          `sweep ${id} is of a ${row.valve_type}; valve ${valve.label} is a ${type.designation}`,
+          { valveId: `valve ${valve.label} is a ${type.designation}` },
+        );
+      }
+      const from = row.valve_id === null ? null : await findValveRow(db, row.valve_id);
+      await updateSweep(db, id, {
+        valve_id: valve?.id ?? null,
+        valve_type: row.valve_type ?? type?.designation ?? null,
+        valve_label: valve?.label ?? row.valve_label,
+      });
+      await audit.record(user, 'sweep.attach', `sweep:${id}`, {
+        from: from ? { valveId: from.id, label: from.label } : null,
+        to: valve ? { valveId: valve.id, label: valve.label } : null,
+      });
+      if (valve) await refreshSweepFigures(db, id);
+      const view = toSweepView(await requireSweep(id));
+      events.sweepChanged(view);
+      return view;
+    },
+
     /** A page of sweeps. */
     async list(q: z.output<typeof sweepListQuery>) {
       const { rows, total } = await listSweeps(db, {
         status: q.status,
         benchId: q.benchId,
+        valveId: q.valveId,
         search: q.q || undefined,
         sortColumn: SORT_COLUMNS[q.sort],
         descending: q.order === 'desc',

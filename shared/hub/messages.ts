@@ -141,6 +141,8 @@ export interface SweepView {
   createdAt: string;
   startedAt: string | null;
   endedAt: string | null;
+  /** Valve record the sweep belongs to, or null (optional for older senders). */
+  valveId?: number | null;
 }
 
 /** Lifecycle state of a quick test. */
