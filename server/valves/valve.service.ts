@@ -15,7 +15,6 @@ import { valveLabelSvg } from './valve-label';
 import {
   deleteValve,
   findValve,
-  findValveRow,
   insertValve,
   labelTaken,
   listAllValves,
