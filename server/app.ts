@@ -9,6 +9,7 @@ import { apiNotFound, errorMiddleware } from './http/error-middleware';
 import { createRouteMounter } from './http/route-spec';
 import { registerSystemRoutes } from './http/system.routes';
 import type { HubServices } from './hub-services';
+import { registerQuickTestRoutes } from './quick-tests/quick-test.routes';
 import { ROUTES, type ApiMount } from './route-table';
 import { registerSweepRoutes } from './sweeps/sweep.routes';
 import { registerSettingsRoutes } from './settings/settings.routes';
@@ -78,6 +79,7 @@ export function createApp(deps: AppDeps): Express {
   registerSettingsRoutes(api, mount, createSettingsService({ db, audit }));
   registerBenchRoutes(api, mount, services.benches);
   registerSweepRoutes(api, mount, services.sweeps, services.benches);
+  registerQuickTestRoutes(api, mount, services.quickTests);
   registerAuditRoutes(api, mount, services.audit);
   app.use(api);
   app.use('/api', apiNotFound);

@@ -6,6 +6,9 @@ import type { HubDb } from './db/database';
 import type { Logger } from './http/error-middleware';
 import { BenchPresence } from './live/bench-presence';
 import { BrowserFanout, type BrowserFanoutProps } from './live/browser-fanout';
+import { quickTestLookups } from './quick-tests/quick-test-lookups';
+import { createQuickTestRunner } from './quick-tests/quick-test-runner';
+import { createQuickTestService } from './quick-tests/quick-test.service';
 import { createSweepRecorder } from './sweeps/sweep-recorder';
 import { createSweepService } from './sweeps/sweep.service';
 
@@ -41,6 +44,7 @@ export function createHubServices(
     sweepView: (id) => sweeps.view(id),
     loadPoints: (id, fromSeq) => sweeps.points(id, fromSeq),
     abortSweep: (id, user) => sweeps.abort(id, user),
+    abortQuickTest: (id, user) => quickTests.abort(id, user),
   });
   const events = browsers;
   const benches = createBenchService({ db, presence, audit, events });
@@ -53,5 +57,34 @@ export function createHubServices(
     startTimeoutMs: config.startTimeoutMs,
   });
   const sweeps = createSweepService({ db, presence, benches, recorder, audit, events });
-  return { db, logger, presence, audit, auth, benches, recorder, sweeps, browsers, events };
+  const quickTestRunner = createQuickTestRunner({
+    db,
+    presence,
+    events,
+    logger,
+    startTimeoutMs: config.startTimeoutMs,
+  });
+  const quickTests = createQuickTestService({
+    db,
+    presence,
+    benches,
+    audit,
+    events,
+    runner: quickTestRunner,
+    ...quickTestLookups(db),
+  });
+  return {
+    db,
+    logger,
+    presence,
+    audit,
+    auth,
+    benches,
+    recorder,
+    sweeps,
+    quickTestRunner,
+    quickTests,
+    browsers,
+    events,
+  };
 }

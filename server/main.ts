@@ -52,6 +52,7 @@ export async function createHub(
   const server = createServer(app);
   const live = attachLiveHub({ server, services, logger, pingIntervalMs: config.pingIntervalMs });
   await services.recorder.resume();
+  await services.quickTestRunner.resume();
 
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
@@ -62,6 +63,7 @@ export async function createHub(
   }).catch(async (error) => {
     live.close();
     services.recorder.close();
+    services.quickTestRunner.close();
     await db.destroy();
     throw error;
   });
@@ -78,6 +80,7 @@ export async function createHub(
       closing ??= (async () => {
         live.close();
         services.recorder.close();
+        services.quickTestRunner.close();
         server.closeAllConnections();
         await new Promise<void>((resolve) => server.close(() => resolve()));
         await db.destroy();

@@ -9,6 +9,12 @@ import {
   patchBenchBody,
 } from './benches/bench.schemas';
 import { idParams } from './http/common-schemas';
+import {
+  quickTestListQuery,
+  quickTestPage,
+  quickTestViewSchema,
+  startQuickTestBody,
+} from './quick-tests/quick-test.schemas';
 import { putSettingsBody, workshopSettingsSchema } from './settings/settings.schemas';
 import { photoViewSchema } from './uploads/photo.schemas';
 import {
@@ -308,6 +314,38 @@ export const ROUTES = {
     summary: 'Audit log, newest first',
     query: auditListQuery,
     response: auditPage,
+  },
+  'GET /api/quick-tests': {
+    minRole: 'viewer',
+    tag: 'quick tests',
+    summary: 'Quick tests, newest first, filtered by valve record, bench, status or grade',
+    query: quickTestListQuery,
+    response: quickTestPage,
+  },
+  'POST /api/quick-tests': {
+    minRole: 'technician',
+    tag: 'quick tests',
+    summary:
+      'Run a quick-test set on a bench (leakage, gm, grid current, emission, reduced heater), ' +
+      'planned within the bench, tracer and valve type limits',
+    body: startQuickTestBody,
+    response: quickTestViewSchema,
+    status: 201,
+  },
+  'GET /api/quick-tests/:id': {
+    minRole: 'viewer',
+    tag: 'quick tests',
+    summary: 'A quick test with its part results and, once complete, its grade and reason',
+    params: idParams,
+    response: quickTestViewSchema,
+  },
+  'POST /api/quick-tests/:id/abort': {
+    minRole: 'technician',
+    tag: 'quick tests',
+    summary: 'Abort a running quick test',
+    params: idParams,
+    response: quickTestViewSchema,
+    status: 202,
   },
 } as const satisfies Record<RouteKey, RouteSpec>;
 

@@ -2,6 +2,7 @@ import SqliteDatabase from 'better-sqlite3';
 import { Kysely, SqliteDialect, type Generated, type Insertable, type Selectable } from 'kysely';
 import type { SweepStatus } from '../../shared/domain/sweep';
 import type { Role } from '../auth/role';
+import type { QuickTestTable } from '../quick-tests/quick-test.table';
 import type { WorkshopSettingTable } from '../settings/workshop-setting.table';
 import type { AttachmentTable } from '../uploads/attachment.table';
 import type {
@@ -92,6 +93,7 @@ export interface Database {
   sweeps: SweepTable;
   sweep_points: SweepPointTable;
   audit_log: AuditLogTable;
+  quick_tests: QuickTestTable;
   valve_types: ValveTypeTable;
   type_operating_points: TypeOperatingPointTable;
   type_ratings: TypeRatingsTable;

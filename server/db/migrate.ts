@@ -1,5 +1,6 @@
 import { Migrator, type Migration, type MigrationProvider, type MigrationResultSet } from 'kysely';
 import * as initial from '../../migrations/2026-12-01-initial';
+import * as quickTests from '../../migrations/2026-12-04-quick-tests';
 import * as typeLibrary from '../../migrations/2026-12-02-type-library';
 import * as valveRecords from '../../migrations/2026-12-03-valve-records';
 import { loadConfig } from '../config';
@@ -14,6 +15,7 @@ const MIGRATIONS: Record<string, Migration> = {
   // Data, not schema: fills the new library once from shared/catalog (lives with its feature).
   '2026-12-02-type-library-seed': typeLibrarySeed,
   '2026-12-03-valve-records': valveRecords,
+  '2026-12-04-quick-tests': quickTests,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };

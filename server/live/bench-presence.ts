@@ -1,5 +1,6 @@
 import type { DeviceCapabilities } from '../../shared/domain/sweep';
 import type { BenchDeviceStatus, HubToBridge } from '../../shared/hub/messages';
+import type { DeviceExtensions } from '../../shared/protocol/check-plan';
 
 /** What the hub needs of one bridge connection. */
 export interface BridgeLink {
@@ -12,6 +13,7 @@ export interface BridgeLink {
 interface Presence {
   link: BridgeLink;
   capabilities: DeviceCapabilities | null;
+  extensions: DeviceExtensions | null;
 }
 
 /**
@@ -25,7 +27,7 @@ export class BenchPresence {
   /** Registers a connection for a bench; returns the one it replaces, if any. */
   connect(benchId: number, link: BridgeLink): BridgeLink | undefined {
     const previous = this.online.get(benchId);
-    this.online.set(benchId, { link, capabilities: null });
+    this.online.set(benchId, { link, capabilities: null, extensions: null });
     return previous?.link;
   }
 
@@ -49,6 +51,17 @@ export class BenchPresence {
   /** Capabilities announced on the current connection, or null. */
   capabilities(benchId: number): DeviceCapabilities | null {
     return this.online.get(benchId)?.capabilities ?? null;
+  }
+
+  /** Optional tracer functions announced on the current connection (quick tests), or null. */
+  extensions(benchId: number): DeviceExtensions | null {
+    return this.online.get(benchId)?.extensions ?? null;
+  }
+
+  /** Records the optional functions a bridge announced in `hello`. */
+  setExtensions(benchId: number, extensions: DeviceExtensions | null): void {
+    const p = this.online.get(benchId);
+    if (p) p.extensions = extensions;
   }
 
   /** Latest status the bench reported (kept after it disconnects), or null. */

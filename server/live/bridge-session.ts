@@ -3,6 +3,7 @@ import type { HubToBridge } from '../../shared/hub/messages';
 import type { BenchService } from '../benches/bench.service';
 import type { BenchRow } from '../db/database';
 import type { Logger } from '../http/error-middleware';
+import type { QuickTestRunner } from '../quick-tests/quick-test-runner';
 import type { SweepRecorder } from '../sweeps/sweep-recorder';
 import type { BenchPresence, BridgeLink } from './bench-presence';
 import type { HubEvents } from './hub-events';
@@ -16,6 +17,8 @@ export interface BridgeSessionProps {
   recorder: SweepRecorder;
   events: HubEvents;
   logger: Logger;
+  /** Runs quick tests; their checks' reports go to it (optional for hubs without them). */
+  quickTestRunner?: QuickTestRunner;
 }
 
 /** Close code sent to a bridge connection that a newer one of the same bench replaces. */
@@ -30,7 +33,7 @@ const RESUME_BELOW = 16;
  * so points are stored before the end of their sweep is recorded, and acks go out in order.
  */
 export function serveBridge(ws: WebSocket, bench: BenchRow, props: BridgeSessionProps): void {
-  const { presence, benches, recorder, events, logger } = props;
+  const { presence, benches, recorder, events, logger, quickTestRunner: quick } = props;
   const link: BridgeLink = {
     send(message: HubToBridge) {
       if (ws.readyState !== ws.OPEN) return false;
@@ -72,6 +75,7 @@ export function serveBridge(ws: WebSocket, bench: BenchRow, props: BridgeSession
     if (!presence.disconnect(bench.id, link)) return; // a newer connection took over
     logger.info(`bridge of ${bench.name} disconnected`);
     events.benchesChanged();
+    quick?.bridgeDisconnected(bench.id);
     void chain
       .then(() =>
         Promise.all([benches.recordSeen(bench.id), recorder.bridgeDisconnected(bench.id)]),
@@ -85,6 +89,7 @@ export function serveBridge(ws: WebSocket, bench: BenchRow, props: BridgeSession
       case 'hello':
         if (!current) return;
         presence.setCapabilities(bench.id, message.capabilities);
+        presence.setExtensions(bench.id, message.extensions ?? null);
         presence.setStatus(bench.id, message.status);
         await benches.recordCapabilities(bench.id, message.capabilities);
         events.benchesChanged();
@@ -95,6 +100,7 @@ export function serveBridge(ws: WebSocket, bench: BenchRow, props: BridgeSession
         presence.setStatus(bench.id, message.status);
         events.benchesChanged();
         await recorder.statusReported(bench.id, message.status);
+        quick?.statusReported(bench.id, message.status);
         return;
       case 'points': {
         const receipt = await recorder.storePoints(bench.id, message.sweepId, message.points);
@@ -118,6 +124,20 @@ export function serveBridge(ws: WebSocket, bench: BenchRow, props: BridgeSession
       case 'sweep-refused':
         await recorder.refused(bench.id, message.sweepId, message.message);
         link.send({ type: 'ack-end', sweepId: message.sweepId });
+        return;
+      case 'check-started':
+        quick?.checkStarted(bench.id, message.checkId);
+        return;
+      case 'check-reading':
+        quick?.checkReading(bench.id, message.checkId, message.reading);
+        return;
+      case 'check-ended': {
+        const { checkId, reason, message: text, errorCode, readings } = message;
+        quick?.checkEnded(bench.id, checkId, reason, text, errorCode, readings);
+        return;
+      }
+      case 'check-refused':
+        quick?.checkRefused(bench.id, message.checkId, message.message);
         return;
     }
   }

@@ -1,6 +1,6 @@
 import type { WebSocket } from 'ws';
 import type { SweepPoint } from '../../shared/domain/sweep';
-import type { BenchView, HubToBrowser, SweepView } from '../../shared/hub/messages';
+import type { BenchView, HubToBrowser, QuickTestView, SweepView } from '../../shared/hub/messages';
 import type { AuthUser } from '../auth/auth-user';
 import { roleAtLeast } from '../auth/role';
 import type { Logger } from '../http/error-middleware';
@@ -16,6 +16,8 @@ export interface BrowserFanoutProps {
   sweepView(id: number): Promise<SweepView>;
   loadPoints(sweepId: number, fromSeq: number): Promise<SweepPoint[]>;
   abortSweep(id: number, user: AuthUser): Promise<SweepView>;
+  /** Aborts a quick test (optional for hubs without them). */
+  abortQuickTest?(id: number, user: AuthUser): Promise<QuickTestView>;
   /** Flow control of point streams. */
   watchOptions?: WatchOptions;
   /** A client with more than this queued is closed with 1013, whatever it was sent; 8 MiB. */
@@ -92,6 +94,11 @@ export class BrowserFanout implements HubEvents {
     this.broadcast({ type: 'sweep', sweep });
   }
 
+  /** Sends a quick test's new state to every browser (small: one message per change). */
+  quickTestChanged(quickTest: QuickTestView): void {
+    this.broadcast({ type: 'quick-test', quickTest });
+  }
+
   /** Passes new points to the browsers watching that sweep. */
   pointsStored(sweepId: number, points: SweepPoint[]): void {
     for (const c of this.clients) c.watches.get(sweepId)?.offer(points);
@@ -141,6 +148,18 @@ export class BrowserFanout implements HubEvents {
       client.watches.delete(message.sweepId);
     } else if (message.type === 'watch-sweep') {
       await this.watch(client, message.sweepId);
+    } else if (message.type === 'abort-quick-test') {
+      if (!roleAtLeast(client.user.role, 'technician')) {
+        throw new HttpError(
+          403,
+          'forbidden',
+          'aborting a quick test needs the technician role or higher',
+        );
+      }
+      if (!this.props.abortQuickTest) {
+        throw new HttpError(400, 'bad_message', 'this hub runs no quick tests');
+      }
+      await this.props.abortQuickTest(message.quickTestId, client.user);
     } else {
       if (!roleAtLeast(client.user.role, 'technician')) {
         throw new HttpError(

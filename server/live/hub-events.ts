@@ -1,5 +1,5 @@
 import type { SweepPoint } from '../../shared/domain/sweep';
-import type { SweepView } from '../../shared/hub/messages';
+import type { QuickTestView, SweepView } from '../../shared/hub/messages';
 
 /** What the services tell the live module, so browsers hear of changes as they happen. */
 export interface HubEvents {
@@ -9,4 +9,6 @@ export interface HubEvents {
   sweepChanged(sweep: SweepView): void;
   /** Points were stored for the first time, in seq order. */
   pointsStored(sweepId: number, points: SweepPoint[]): void;
+  /** A quick test changed (optional: event sinks that predate quick tests ignore them). */
+  quickTestChanged?(quickTest: QuickTestView): void;
 }

@@ -119,7 +119,9 @@ export function gmGridStepVolts(vg1Volts: number): number {
  */
 export function planQuickTest(input: QuickTestPlanInput): QuickTestPlan {
   const { type } = input;
-  const options = { ...DEFAULT_QUICK_TEST_OPTIONS, ...input.options };
+  // A setting given as undefined keeps its default.
+  const given = Object.entries(input.options ?? {}).filter(([, v]) => v !== undefined);
+  const options: QuickTestOptions = { ...DEFAULT_QUICK_TEST_OPTIONS, ...Object.fromEntries(given) };
   const op = type.operatingPoints[0];
   if (!op) throw new Error(`valve type ${type.designation} has no typical operating point`);
   const limits = strictestLimits(input.limits, limitsFromType(type));
