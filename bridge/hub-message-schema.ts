@@ -25,7 +25,10 @@ const timing = { warmupSeconds: z.number(), settleMs: z.number() };
 
 /** Shape of a check as the hub sends it; limits are checked later by checkProblems. */
 const checkPlan = z.discriminatedUnion('kind', [
-  z.object({ kind: z.literal('transfer'), plan: sweepPlan.extend({ kind: z.literal('transfer') }) }),
+  z.object({
+    kind: z.literal('transfer'),
+    plan: sweepPlan.extend({ kind: z.literal('transfer') }),
+  }),
   z.object({
     kind: z.literal('leakage'),
     heaterVolts: volts,

@@ -24,7 +24,11 @@ export function quickTestLookups(
       const row = await findValveRow(db, id);
       if (!row) return undefined;
       const type = await findTypeRecordById(db, row.valve_type_id);
-      return { id: row.id, label: row.label, valveType: type ? toValveTypeView(type).designation : '' };
+      return {
+        id: row.id,
+        label: row.label,
+        valveType: type ? toValveTypeView(type).designation : '',
+      };
     },
     async thresholds() {
       const settings = await readSettings(db);
