@@ -29,6 +29,16 @@ export const appRoutes: Routes = [
         title: 'Sweep · Emberline',
         loadComponent: () => import('./sweeps/sweep-detail').then((m) => m.SweepDetail),
       },
+      {
+        path: 'valves',
+        title: 'Valves · Emberline',
+        loadComponent: () => import('./valves/valve-list').then((m) => m.ValveList),
+      },
+      {
+        path: 'valves/:id',
+        title: 'Valve · Emberline',
+        loadComponent: () => import('./valves/valve-record').then((m) => m.ValveRecord),
+      },
     ],
   },
   { path: '**', redirectTo: '' },

@@ -7,24 +7,32 @@ import { DomSanitizer } from '@angular/platform-browser';
  * files from @material-symbols/svg-400 into /icons, so no icon is fetched from elsewhere.
  */
 export const APP_ICONS = [
+  'add',
   'arrow_back',
   'bolt',
   'cable',
+  'category',
   'check_circle',
   'dark_mode',
+  'delete',
   'download',
+  'edit',
   'error',
+  'inventory_2',
   'light_mode',
   'link_off',
   'local_fire_department',
   'logout',
   'menu',
   'monitoring',
+  'photo_camera',
   'play_arrow',
+  'print',
   'search',
   'stop_circle',
   'table_rows',
   'timer',
+  'upload',
   'warning',
 ] as const;
 

@@ -15,4 +15,5 @@ const EVERYONE: readonly Role[] = ['admin', 'technician', 'viewer'];
 export const NAV_ITEMS: readonly NavItem[] = [
   { path: '/bench', label: 'Bench', icon: 'monitoring', roles: EVERYONE },
   { path: '/sweeps', label: 'Sweeps', icon: 'table_rows', roles: EVERYONE },
+  { path: '/valves', label: 'Valves', icon: 'inventory_2', roles: EVERYONE },
 ];
