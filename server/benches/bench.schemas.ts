@@ -52,6 +52,10 @@ export const benchViewSchema = z.object({
   bridgeOnline: z.boolean(),
   capabilities: capabilitiesSchema.nullable(),
   status: z.record(z.string(), z.unknown()).nullable().describe('BenchDeviceStatus'),
+  extensions: z
+    .record(z.string(), z.unknown())
+    .nullable()
+    .describe('DeviceExtensions: quick-test functions the tracer offers, null when unknown'),
   limits: benchLimitsSchema,
   lastSeenAt: z.string().nullable(),
 });

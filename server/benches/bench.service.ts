@@ -70,6 +70,7 @@ export function createBenchService({ db, presence, audit, events }: BenchService
       bridgeOnline: presence.isOnline(row.id),
       capabilities: presence.capabilities(row.id) ?? stored,
       status: presence.status(row.id),
+      extensions: presence.extensions(row.id),
       limits: benchLimits(row),
       lastSeenAt: row.last_seen_at,
     };

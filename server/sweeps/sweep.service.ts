@@ -16,6 +16,7 @@ import { findValveTypeView } from '../valve-types/valve-type.service';
 import { findTypeRecordById } from '../valve-types/valve-type.repository';
 import { limitsOfType, toValveTypeView, type ValveTypeView } from '../valve-types/valve-type-view';
 import { refreshSweepFigures } from '../valves/refresh-sweep-figures';
+import { findActiveQuickTestOfBench } from '../quick-tests/quick-test.repository';
 import { findValveRow } from '../valves/valve.repository';
 import { toSweepView } from './sweep-view';
 import type { attachSweepBody, startSweepBody, sweepListQuery } from './sweep.schemas';
@@ -131,6 +132,10 @@ export function createSweepService(props: SweepServiceProps) {
 
       if ((await findActiveSweepOfBench(db, bench.id)) || (status?.sweepId ?? null) !== null) {
         throw new HttpError(409, 'bench_busy', `${bench.name} is running a sweep`);
+      }
+      // A quick test runs as several checks with gaps between them: the bench stays taken.
+      if (await findActiveQuickTestOfBench(db, bench.id)) {
+        throw new HttpError(409, 'bench_busy', `${bench.name} is running a quick test`);
       }
       let sweepId: number;
       try {

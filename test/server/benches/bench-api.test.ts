@@ -24,6 +24,7 @@ describe('benches API', () => {
         capabilities: null,
         status: null,
         limits: DEFAULT_BENCH_LIMITS,
+        extensions: null,
         lastSeenAt: null,
       },
       {
@@ -33,6 +34,7 @@ describe('benches API', () => {
         capabilities: null,
         status: null,
         limits: DEFAULT_BENCH_LIMITS,
+        extensions: null,
         lastSeenAt: null,
       },
     ]);
