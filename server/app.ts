@@ -9,7 +9,12 @@ import { apiNotFound, errorMiddleware } from './http/error-middleware';
 import { createRouteMounter } from './http/route-spec';
 import { registerSystemRoutes } from './http/system.routes';
 import type { HubServices } from './hub-services';
+import { registerDevMailRoutes } from './mail/dev-mail.routes';
+import { createMatchSetService } from './matching/match-set.service';
+import { createMatchingService } from './matching/matching.service';
+import { registerMatchingRoutes } from './matching/matching.routes';
 import { registerQuickTestRoutes } from './quick-tests/quick-test.routes';
+import { renderMatchReportPdf } from './reports/match-report-pdf';
 import { ROUTES, type ApiMount } from './route-table';
 import { registerSweepRoutes } from './sweeps/sweep.routes';
 import { registerSettingsRoutes } from './settings/settings.routes';
@@ -81,6 +86,20 @@ export function createApp(deps: AppDeps): Express {
   registerSweepRoutes(api, mount, services.sweeps, services.benches);
   registerQuickTestRoutes(api, mount, services.quickTests);
   registerAuditRoutes(api, mount, services.audit);
+  registerMatchingRoutes(
+    api,
+    mount,
+    createMatchingService({ db, audit }),
+    createMatchSetService({
+      db,
+      audit,
+      mailer: services.mailer,
+      workshopName: services.workshopName,
+      renderPdf: renderMatchReportPdf,
+    }),
+    deps.publicUrl ?? (process.env.PUBLIC_URL || null),
+  );
+  registerDevMailRoutes(api, mount, db);
   app.use(api);
   app.use('/api', apiNotFound);
 

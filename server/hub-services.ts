@@ -5,6 +5,8 @@ import type { HubConfig } from './config';
 import type { HubDb } from './db/database';
 import type { Logger } from './http/error-middleware';
 import { BenchPresence } from './live/bench-presence';
+import { DEMO_WORKSHOP } from './demo/demo-data';
+import { createMailer } from './mail/mailer';
 import { BrowserFanout, type BrowserFanoutProps } from './live/browser-fanout';
 import { quickTestLookups } from './quick-tests/quick-test-lookups';
 import { createQuickTestRunner } from './quick-tests/quick-test-runner';
@@ -16,7 +18,8 @@ import { createSweepService } from './sweeps/sweep.service';
 export type ServiceConfig = Pick<
   HubConfig,
   'jwtSecret' | 'jwtLifetimeSeconds' | 'linkGraceMs' | 'startTimeoutMs'
->;
+> &
+  Partial<Pick<HubConfig, 'smtpUrl' | 'workshopName' | 'demo'>>;
 
 /** Every service of the hub, wired together. */
 export type HubServices = ReturnType<typeof createHubServices>;
@@ -73,9 +76,14 @@ export function createHubServices(
     runner: quickTestRunner,
     ...quickTestLookups(db),
   });
+  const mailer = createMailer(config.smtpUrl ?? null, process.env.MAIL_FROM || undefined);
+  const workshopName =
+    config.workshopName ?? (config.demo === false ? 'Emberline workshop' : DEMO_WORKSHOP);
   return {
     db,
     logger,
+    mailer,
+    workshopName,
     presence,
     audit,
     auth,

@@ -10,6 +10,7 @@ import type { Logger } from './http/error-middleware';
 import { createHubServices, type HubServices } from './hub-services';
 import { isEntryPoint } from './is-entry-point';
 import { attachLiveHub, type LiveHub } from './live/live-hub';
+import { startDevSmtpServer, type DevSmtpServer } from './mail/dev-smtp-server';
 
 /** A running hub. */
 export interface RunningHub {
@@ -47,7 +48,22 @@ export async function createHub(
     await db.destroy();
     throw error;
   }
-  const services = createHubServices(db, config, logger);
+  // Demo without a mail server: the hub keeps what it sends, for the admin's mail view.
+  let devSmtp: DevSmtpServer | null = null;
+  if (!config.smtpUrl && config.demo && config.devSmtpPort !== undefined) {
+    try {
+      devSmtp = await startDevSmtpServer(db, config.devSmtpPort, logger);
+      logger.info(`development mail server on ${devSmtp.url}`);
+    } catch (error) {
+      // A busy port must not keep the hub down; sending mail then answers 503.
+      logger.warn(`development mail server not started: ${(error as Error).message}`);
+    }
+  }
+  const services = createHubServices(
+    db,
+    { ...config, smtpUrl: config.smtpUrl || devSmtp?.url || null },
+    logger,
+  );
   const app = createApp({ services, version: config.version, staticDir: config.staticDir });
   const server = createServer(app);
   const live = attachLiveHub({ server, services, logger, pingIntervalMs: config.pingIntervalMs });
@@ -64,6 +80,8 @@ export async function createHub(
     live.close();
     services.recorder.close();
     services.quickTestRunner.close();
+    services.mailer.close();
+    await devSmtp?.close();
     await db.destroy();
     throw error;
   });
@@ -83,6 +101,8 @@ export async function createHub(
         services.quickTestRunner.close();
         server.closeAllConnections();
         await new Promise<void>((resolve) => server.close(() => resolve()));
+        services.mailer.close();
+        await devSmtp?.close();
         await db.destroy();
       })();
       return closing;

@@ -37,6 +37,7 @@ import {
   valveViewSchema,
 } from './valves/valve.schemas';
 import type { RouteHandler, RouteKey, RouteSpec } from './http/route-spec';
+import { MATCHING_ROUTES } from './matching/matching-route-specs';
 import {
   attachSweepBody,
   startSweepBody,
@@ -347,6 +348,7 @@ export const ROUTES = {
     response: quickTestViewSchema,
     status: 202,
   },
+  ...MATCHING_ROUTES,
 } as const satisfies Record<RouteKey, RouteSpec>;
 
 /** Key of a route in the table. */

@@ -2,6 +2,14 @@ import SqliteDatabase from 'better-sqlite3';
 import { Kysely, SqliteDialect, type Generated, type Insertable, type Selectable } from 'kysely';
 import type { SweepStatus } from '../../shared/domain/sweep';
 import type { Role } from '../auth/role';
+import type { OutboxReceivedTable } from '../mail/outbox-received.table';
+import type {
+  MatchRunTable,
+  MatchSetMailingTable,
+  MatchSetMemberTable,
+  MatchSetShareTable,
+  MatchSetTable,
+} from '../matching/match-set.table';
 import type { QuickTestTable } from '../quick-tests/quick-test.table';
 import type { WorkshopSettingTable } from '../settings/workshop-setting.table';
 import type { AttachmentTable } from '../uploads/attachment.table';
@@ -103,6 +111,12 @@ export interface Database {
   sweep_figures: SweepFiguresTable;
   attachments: AttachmentTable;
   workshop_settings: WorkshopSettingTable;
+  match_runs: MatchRunTable;
+  match_sets: MatchSetTable;
+  match_set_members: MatchSetMemberTable;
+  match_set_mailings: MatchSetMailingTable;
+  match_set_shares: MatchSetShareTable;
+  outbox_received: OutboxReceivedTable;
 }
 
 export type UserRow = Selectable<UserTable>;

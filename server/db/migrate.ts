@@ -1,5 +1,6 @@
 import { Migrator, type Migration, type MigrationProvider, type MigrationResultSet } from 'kysely';
 import * as initial from '../../migrations/2026-12-01-initial';
+import * as matchSets from '../../migrations/2026-12-05-match-sets';
 import * as quickTests from '../../migrations/2026-12-04-quick-tests';
 import * as typeLibrary from '../../migrations/2026-12-02-type-library';
 import * as valveRecords from '../../migrations/2026-12-03-valve-records';
@@ -16,6 +17,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-02-type-library-seed': typeLibrarySeed,
   '2026-12-03-valve-records': valveRecords,
   '2026-12-04-quick-tests': quickTests,
+  '2026-12-05-match-sets': matchSets,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };
