@@ -35,9 +35,24 @@ export const appRoutes: Routes = [
         loadComponent: () => import('./valves/valve-list').then((m) => m.ValveList),
       },
       {
+        path: 'box-check',
+        title: 'Box check · Emberline',
+        loadComponent: () => import('./box-check/box-check').then((m) => m.BoxCheck),
+      },
+      {
         path: 'valves/:id',
         title: 'Valve · Emberline',
         loadComponent: () => import('./valves/valve-record').then((m) => m.ValveRecord),
+      },
+      {
+        path: 'types',
+        title: 'Types · Emberline',
+        loadComponent: () => import('./types/type-list').then((m) => m.TypeList),
+      },
+      {
+        path: 'types/:designation',
+        title: 'Type · Emberline',
+        loadComponent: () => import('./types/type-detail').then((m) => m.TypeDetail),
       },
     ],
   },

@@ -16,4 +16,6 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { path: '/bench', label: 'Bench', icon: 'monitoring', roles: EVERYONE },
   { path: '/sweeps', label: 'Sweeps', icon: 'table_rows', roles: EVERYONE },
   { path: '/valves', label: 'Valves', icon: 'inventory_2', roles: EVERYONE },
+  { path: '/box-check', label: 'Box check', icon: 'check_circle', roles: ['admin', 'technician'] },
+  { path: '/types', label: 'Types', icon: 'category', roles: EVERYONE },
 ];

@@ -1,7 +1,6 @@
 import {
   ChangeDetectionStrategy,
   Component,
-  DestroyRef,
   inject,
   input,
   signal,
@@ -10,7 +9,9 @@ import {
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
+import { switchMap } from 'rxjs';
 import { apiErrorMessage } from '../core/api-error-message';
+import { blobDataUrl } from './blob-data-url';
 import { ValvesApi, type PhotoView } from './valves-api';
 
 /** Image types the hub stores (it checks the content too). */
@@ -27,7 +28,7 @@ export function photoProblem(file: { name: string; type: string; size: number })
 
 /**
  * A valve's photos as thumbnails, with upload and delete for technicians. The hub serves images
- * only with the bearer header, so each is fetched as a blob and shown from an object URL.
+ * only with the bearer header, so each is fetched as a blob and shown from a data: URL.
  */
 @Component({
   selector: 'app-valve-photos',
@@ -133,17 +134,14 @@ export class ValvePhotos {
   private readonly api = inject(ValvesApi);
   protected readonly photos = signal<PhotoView[]>([]);
   protected readonly urls = signal<Record<number, string>>({});
-  protected readonly fullUrls = signal<Record<number, string>>({});
   protected readonly uploading = signal(false);
   protected readonly error = signal<string | null>(null);
-  private readonly objectUrls: string[] = [];
 
   constructor() {
     effect(() => {
       const id = this.valveId();
       untracked(() => this.load(id));
     });
-    inject(DestroyRef).onDestroy(() => this.objectUrls.forEach((u) => URL.revokeObjectURL(u)));
   }
 
   protected upload(picker: HTMLInputElement): void {
@@ -174,20 +172,23 @@ export class ValvePhotos {
     });
   }
 
-  /** Opens the full image in a new tab once fetched with the bearer header. */
+  /** Shows the full image in a new window once fetched with the bearer header. */
   protected openFull(event: Event, photo: PhotoView): void {
     event.preventDefault();
-    const known = this.fullUrls()[photo.id];
+    // Open at once, inside the click: a window opened after the fetch would be blocked.
     const win = globalThis.open?.('', '_blank');
-    const show = (url: string) => {
-      if (win) win.location.href = url;
-    };
-    if (known) return show(known);
-    this.api.image(photo.url).subscribe((blob) => {
-      const url = this.track(URL.createObjectURL(blob));
-      this.fullUrls.update((m) => ({ ...m, [photo.id]: url }));
-      show(url);
-    });
+    if (!win) return;
+    win.document.title = photo.originalName;
+    this.api
+      .image(photo.url)
+      .pipe(switchMap((blob) => blobDataUrl(blob)))
+      .subscribe((url) => {
+        const img = win.document.createElement('img');
+        img.src = url;
+        img.alt = photo.originalName;
+        img.style.maxWidth = '100%';
+        win.document.body.appendChild(img);
+      });
   }
 
   private load(id: number): void {
@@ -201,14 +202,9 @@ export class ValvePhotos {
   }
 
   private fetchThumb(photo: PhotoView): void {
-    this.api.image(photo.thumbUrl).subscribe((blob) => {
-      const url = this.track(URL.createObjectURL(blob));
-      this.urls.update((m) => ({ ...m, [photo.id]: url }));
-    });
-  }
-
-  private track(url: string): string {
-    this.objectUrls.push(url);
-    return url;
+    this.api
+      .image(photo.thumbUrl)
+      .pipe(switchMap((blob) => blobDataUrl(blob)))
+      .subscribe((url) => this.urls.update((m) => ({ ...m, [photo.id]: url })));
   }
 }

@@ -3,7 +3,6 @@ import {
   ChangeDetectionStrategy,
   Component,
   computed,
-  DestroyRef,
   effect,
   inject,
   input,
@@ -91,6 +90,12 @@ export class ValveRecord {
 
   protected readonly valveId = computed(() => Number(this.id()));
   protected readonly latest = computed(() => latestFigures(this.valve()?.trend ?? []));
+  protected readonly referenceText = computed(() => {
+    const p = this.valve()?.referencePoint;
+    if (!p) return '';
+    const vg2 = p.vg2Volts !== null ? `, Vg2 ${p.vg2Volts} V` : '';
+    return `Va ${p.vaVolts} V, Vg1 ${p.vg1Volts} V${vg2}`;
+  });
   protected readonly reason = computed(() => {
     const v = this.valve();
     return v ? gradeReason(this.latest(), v.referencePoint) : '';
@@ -138,10 +143,6 @@ export class ValveRecord {
     effect(() => {
       const id = this.valveId();
       untracked(() => this.load(id));
-    });
-    inject(DestroyRef).onDestroy(() => {
-      const url = this.labelUrl();
-      if (url) URL.revokeObjectURL(url);
     });
   }
 
@@ -206,9 +207,8 @@ export class ValveRecord {
     this.api.labelSvg(id).subscribe({
       next: (svg) => {
         this.labelSvg = svg;
-        const old = this.labelUrl();
-        if (old) URL.revokeObjectURL(old);
-        this.labelUrl.set(URL.createObjectURL(new Blob([svg], { type: 'image/svg+xml' })));
+        // A data: URL: the content policy blocks blob: images.
+        this.labelUrl.set(`data:image/svg+xml;charset=utf-8,${encodeURIComponent(svg)}`);
       },
       error: () => this.labelUrl.set(null),
     });
