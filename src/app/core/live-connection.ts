@@ -123,6 +123,11 @@ export class LiveConnection {
     return this.send({ type: 'abort-sweep', sweepId });
   }
 
+  /** Asks the hub to abort a quick test; false if the socket is not open (use REST then). */
+  abortQuickTest(quickTestId: number): boolean {
+    return this.send({ type: 'abort-quick-test', quickTestId });
+  }
+
   private send(message: BrowserToHub): boolean {
     if (!this.socket || !this.connectedState()) return false;
     this.socket.next(message);
