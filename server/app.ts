@@ -10,6 +10,7 @@ import { createRouteMounter } from './http/route-spec';
 import { registerSystemRoutes } from './http/system.routes';
 import type { HubServices } from './hub-services';
 import { registerDevMailRoutes } from './mail/dev-mail.routes';
+import { createMatchSetShares } from './matching/match-set-shares';
 import { createMatchSetService } from './matching/match-set.service';
 import { createMatchingService } from './matching/matching.service';
 import { registerMatchingRoutes } from './matching/matching.routes';
@@ -86,17 +87,19 @@ export function createApp(deps: AppDeps): Express {
   registerSweepRoutes(api, mount, services.sweeps, services.benches);
   registerQuickTestRoutes(api, mount, services.quickTests);
   registerAuditRoutes(api, mount, services.audit);
+  const matchSets = createMatchSetService({
+    db,
+    audit,
+    mailer: services.mailer,
+    workshopName: services.workshopName,
+    renderPdf: renderMatchReportPdf,
+  });
   registerMatchingRoutes(
     api,
     mount,
     createMatchingService({ db, audit }),
-    createMatchSetService({
-      db,
-      audit,
-      mailer: services.mailer,
-      workshopName: services.workshopName,
-      renderPdf: renderMatchReportPdf,
-    }),
+    matchSets,
+    createMatchSetShares({ db, audit, sets: matchSets }),
     deps.publicUrl ?? (process.env.PUBLIC_URL || null),
   );
   registerDevMailRoutes(api, mount, db);

@@ -1,4 +1,5 @@
 import nodemailer from 'nodemailer';
+import { HttpError } from '../http/http-error';
 
 /** One attachment of an outgoing message. */
 export interface MailAttachment {
@@ -31,10 +32,10 @@ export const DEFAULT_MAIL_FROM = 'Emberline <emberline@localhost>';
 export function createMailer(smtpUrl: string | null, from = DEFAULT_MAIL_FROM): Mailer {
   if (!smtpUrl) {
     return {
-      send: async () => {
-        const { HttpError } = await import('../http/http-error');
-        throw new HttpError(503, 'mail_not_configured', 'no SMTP server is set (SMTP_URL)');
-      },
+      send: () =>
+        Promise.reject(
+          new HttpError(503, 'mail_not_configured', 'no SMTP server is set (SMTP_URL)'),
+        ),
       close: () => {},
     };
   }

@@ -1,12 +1,5 @@
-import { createHash, randomBytes } from 'node:crypto';
 import type { z } from 'zod';
 import type { SweepPlan, SweepPoint } from '../../shared/domain/sweep';
-import {
-  groupSpread,
-  prepareValves,
-  resolveCriteria,
-  valveDistance,
-} from '../../shared/matching/index';
 import type { AuditService } from '../audit/audit.service';
 import type { AuthUser } from '../auth/auth-user';
 import type { HubDb } from '../db/database';
@@ -18,15 +11,12 @@ import { findValve } from '../valves/valve.repository';
 import { findMatchRun } from './match-run.repository';
 import {
   findMatchSet,
-  findShareByHash,
   insertMailing,
   insertMatchSet,
-  insertShare,
   listMailings,
   listMatchSets,
   listMembers,
   listShares,
-  revokeShare,
   setMatchSetStatus,
 } from './match-set.repository';
 import type {
@@ -34,20 +24,15 @@ import type {
   MatchSetDetail,
   matchSetListQuery,
   sendReportBody,
-  sharedMatchSetSchema,
 } from './match-set.schemas';
-import { candidatesOf, loadPool, matchingRefused, toMatchingCriteria } from './matching-pool';
+import { setFigures } from './match-set-figures';
+import { loadPool } from './matching-pool';
 import { matchCriteriaSchema, type MatchCriteriaInput } from './matching.schemas';
 import { REPORT_NOTES, type MatchReport } from '../reports/match-report';
 
 /** A set's code: our own scheme, MS and the id in four digits. */
 export function matchSetCode(id: number): string {
   return `MS-${String(id).padStart(4, '0')}`;
-}
-
-/** Hash under which a share token is stored (SHA-256, hex). */
-export function shareTokenHash(token: string): string {
-  return createHash('sha256').update(token).digest('hex');
 }
 
 /** Statuses that keep a valve out of a new set. */
@@ -207,36 +192,8 @@ export function createMatchSetService(props: MatchSetServiceProps) {
           Object.fromEntries(taken.map((p) => [`valve.${p.row.valve_id}`, p.row.status])),
         );
       }
-      const resolved = resolveCriteria(toMatchingCriteria(criteria, valveIds.length));
-      if (!resolved.ok) throw matchingRefused(resolved.reason);
       const ordered = valveIds.map((id) => byId.get(id)!);
-      const { features, excluded } = prepareValves(candidatesOf(ordered), resolved.criteria);
-      if (excluded.length) {
-        throw matchingRefused(excluded.map((e) => `${e.label}: ${e.detail}`).join('; '));
-      }
-      const spread = groupSpread(features, resolved.criteria);
-      let scorePercent = 0;
-      for (let a = 0; a < features.length; a++) {
-        for (let b = a + 1; b < features.length; b++) {
-          const d = valveDistance(features[a], features[b], resolved.criteria).distancePercent;
-          scorePercent = Math.max(scorePercent, d);
-        }
-      }
-      const figures = {
-        scorePercent,
-        acceptable: spread.acceptable,
-        tolerancePercent: resolved.criteria.tolerancePercent,
-        curveSpreadPercent: spread.curveSpreadPercent,
-        exceeds: spread.exceeds,
-        points: spread.points,
-        members: features.map((f) => ({
-          valveId: Number(f.id),
-          readings: f.section1.points.map((r, i) => ({
-            label: resolved.criteria.points[i].label,
-            ...r,
-          })),
-        })),
-      };
+      const figures = setFigures(ordered, criteria);
       const now = new Date().toISOString();
       const id = await db.transaction().execute(async (trx) => {
         // Checked again inside the write: two reservations of one valve cannot both pass.
@@ -390,86 +347,5 @@ export function createMatchSetService(props: MatchSetServiceProps) {
       });
       return { to: body.to, at, messageId };
     },
-
-    /** Makes a buyer's link; the token is answered once and stored only as a hash. */
-    async share(id: number, expiresInDays: number, user: AuthUser, origin: string) {
-      const set = await requireSet(id);
-      const token = randomBytes(24).toString('base64url');
-      const now = new Date();
-      const expiresAt = new Date(now.getTime() + expiresInDays * 86_400_000).toISOString();
-      const shareId = await insertShare(db, {
-        match_set_id: id,
-        token_hash: shareTokenHash(token),
-        expires_at: expiresAt,
-        revoked_at: null,
-        created_by: user.id,
-        created_at: now.toISOString(),
-      });
-      await audit.record(user, 'match-set.share', `match-set:${id}`, {
-        code: set.code,
-        shareId,
-        expiresAt,
-      });
-      const url = `${origin}/api/shared/match-sets/${token}`;
-      return { id: shareId, url, reportUrl: `${url}/report.pdf`, token, expiresAt };
-    },
-
-    /** Revokes a buyer's link. */
-    async revokeShare(id: number, shareId: number, user: AuthUser): Promise<void> {
-      await requireSet(id);
-      if (!(await revokeShare(db, id, shareId, new Date().toISOString()))) {
-        throw notFound('share', shareId);
-      }
-      await audit.record(user, 'match-set.unshare', `match-set:${id}`, { shareId });
-    },
-
-    /** The set behind a buyer's token: 404 unknown, 410 expired or revoked. */
-    async sharedSetId(token: string): Promise<{ setId: number; expiresAt: string }> {
-      const share = await findShareByHash(db, shareTokenHash(token));
-      if (!share) throw new HttpError(404, 'share_not_found', 'no such link');
-      if (share.revoked_at !== null || share.expires_at <= new Date().toISOString()) {
-        throw new HttpError(410, 'share_gone', 'this link has expired or was withdrawn');
-      }
-      return { setId: share.match_set_id, expiresAt: share.expires_at };
-    },
-
-    /** What a buyer's link shows. */
-    async sharedView(token: string): Promise<z.infer<typeof sharedMatchSetSchema>> {
-      const { setId, expiresAt } = await this.sharedSetId(token);
-      const r = await report(setId);
-      return {
-        workshop: r.workshop,
-        code: r.set.code,
-        valveType: r.set.valveType,
-        status: r.set.status,
-        createdAt: r.set.createdAt,
-        figures: r.set.figures,
-        members: r.set.members.map(({ status: _, ...m }) => ({
-          ...m,
-          curves: downsampledCurves(r.families.get(m.valveId) ?? [], 40),
-        })),
-        notes: r.notes,
-        expiresAt,
-      };
-    },
   };
-}
-
-/** A family as curves of at most `max` [Va, Ia] points each (every k-th point, ends kept). */
-export function downsampledCurves(
-  family: readonly SweepPoint[],
-  max: number,
-): { vg1Volts: number; points: [number, number][] }[] {
-  const curves = new Map<number, SweepPoint[]>();
-  for (const p of family) curves.set(p.curve, [...(curves.get(p.curve) ?? []), p]);
-  return [...curves.entries()]
-    .sort((a, b) => a[0] - b[0])
-    .map(([, pts]) => {
-      const step = Math.max(1, Math.ceil(pts.length / max));
-      const kept = pts.filter((_, i) => i % step === 0 || i === pts.length - 1);
-      return {
-        vg1Volts: pts[0].vg1Volts,
-        points: kept.map((p) => [p.vaVolts, p.iaMilliamps] as [number, number]),
-      };
-    });
 }

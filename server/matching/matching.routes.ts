@@ -1,5 +1,6 @@
 import type { Request, Router } from 'express';
 import type { ApiMount } from '../route-table';
+import type { MatchSetShares } from './match-set-shares';
 import type { MatchSetService } from './match-set.service';
 import type { MatchingService } from './matching.service';
 
@@ -15,6 +16,7 @@ export function registerMatchingRoutes(
   mount: ApiMount,
   matching: MatchingService,
   sets: MatchSetService,
+  shares: MatchSetShares,
   publicUrl: string | null,
 ): void {
   mount(router, 'POST /api/matching/runs', ({ body, user }) => matching.run(body, user));
@@ -37,16 +39,18 @@ export function registerMatchingRoutes(
     sets.sendReport(params.id, body, user),
   );
   mount(router, 'POST /api/match-sets/:id/share', ({ params, body, user }, _res, req) =>
-    sets.share(params.id, body.expiresInDays, user, appOrigin(req, publicUrl)),
+    shares.share(params.id, body.expiresInDays, user, appOrigin(req, publicUrl)),
   );
   mount(router, 'DELETE /api/match-sets/:id/share/:shareId', async ({ params, user }, res) => {
-    await sets.revokeShare(params.id, params.shareId, user);
+    await shares.revokeShare(params.id, params.shareId, user);
     res.status(204).end();
   });
 
-  mount(router, 'GET /api/shared/match-sets/:token', ({ params }) => sets.sharedView(params.token));
+  mount(router, 'GET /api/shared/match-sets/:token', ({ params }) =>
+    shares.sharedView(params.token),
+  );
   mount(router, 'GET /api/shared/match-sets/:token/report.pdf', async ({ params }, res) => {
-    const { setId } = await sets.sharedSetId(params.token);
+    const { setId } = await shares.sharedSetId(params.token);
     const { fileName, pdf } = await sets.reportPdf(setId);
     res.status(200).type('application/pdf').attachment(fileName).send(pdf);
   });

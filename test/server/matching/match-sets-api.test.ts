@@ -4,6 +4,8 @@ import { VALVE_TYPES } from '../../../shared/catalog/valve-types';
 import { readingEndsCurve } from '../../../shared/domain/plan-check';
 import { anodeSteps, type SweepPlan, type SweepPoint } from '../../../shared/domain/sweep';
 import { korenTriodeIa, type KorenTriodeParams } from '../../../shared/physics/koren';
+import { splitRouteKey } from '../../../server/http/route-spec';
+import { ROUTES } from '../../../server/route-table';
 import { smallTriodePlan, startTestHub, type TestHub } from '../test-hub';
 
 /** Koren's published 12AX7 set (Glass Audio 8(5), 1996), as the catalog carries it. */
@@ -254,6 +256,19 @@ describe('matching runs and match sets', () => {
     expect((await hub.api.get(`/api/shared/match-sets/${token}`).expect(410)).body.error.code).toBe(
       'share_gone',
     );
+  });
+
+  it('turns a buyer token away from every route that needs a sign-in', async () => {
+    const share = await as(tech).post(`/api/match-sets/${setId}/share`, { expiresInDays: 7 });
+    const { token } = share.body;
+    const guarded = Object.entries(ROUTES).filter(([, spec]) => spec.minRole !== null);
+    expect(guarded.length).toBeGreaterThan(40);
+    for (const [key] of guarded) {
+      const [method, route] = splitRouteKey(key as keyof typeof ROUTES);
+      const url = route.replace(/:[A-Za-z]+/g, String(setId));
+      const res = await hub.api[method](url).set('authorization', `Bearer ${token}`).send({});
+      expect(res.status, key).toBe(401);
+    }
   });
 
   it('refuses an expired buyer link', async () => {
