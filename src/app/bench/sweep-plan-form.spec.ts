@@ -4,6 +4,7 @@ import { importProvidersFrom } from '@angular/core';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import type { HarnessLoader } from '@angular/cdk/testing';
+import { MatAutocompleteHarness } from '@angular/material/autocomplete/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatCheckboxHarness } from '@angular/material/checkbox/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
@@ -14,6 +15,7 @@ import { MatInputHarness } from '@angular/material/input/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import type { SweepView } from '../../../shared/hub/messages';
 import { benchView, sweepView, VALVE_TYPE_VIEWS } from '../../testing/fixtures';
+import { valveView } from '../valves/valve-view-fixture';
 import { SweepPlanForm } from './sweep-plan-form';
 
 describe('SweepPlanForm', () => {
@@ -175,5 +177,32 @@ describe('SweepPlanForm', () => {
     await chooseType('12AX7');
     expect(await (await startButton()).isDisabled()).toBe(true);
     expect((fixture.nativeElement as HTMLElement).textContent).toContain('Bench A is offline.');
+  });
+
+  it('takes the type and label from a picked valve record and posts its id', async () => {
+    await render();
+    const picker = await loader.getHarness(MatAutocompleteHarness);
+    await picker.enterText('WK');
+    const search = await vi.waitFor(() => http.expectOne((r) => r.url === '/api/valves'));
+    expect(search.request.params.get('q')).toBe('WK');
+    search.flush({ items: [valveView({ id: 7, type: 'EL34' })], total: 1, page: 1, pageSize: 10 });
+    await fixture.whenStable();
+    await vi.waitFor(async () => expect(await picker.isOpen()).toBe(true));
+    await picker.selectOption({ text: /WK-0007/ });
+    expect(await (await input('valveLabel')).getValue()).toBe('WK-0007');
+    expect(await (await loader.getHarness(MatSelectHarness)).getValueText()).toMatch(/^EL34/);
+
+    await (await startButton()).click();
+    const root = TestbedHarnessEnvironment.documentRootLoader(fixture);
+    const confirm = await root.getHarness(MatButtonHarness.with({ text: /Apply voltages/ }));
+    const clicked = confirm.click();
+    const req = await vi.waitFor(() => http.expectOne('/api/sweeps'));
+    expect(req.request.body).toMatchObject({
+      valveId: 7,
+      valveType: 'EL34',
+      valveLabel: 'WK-0007',
+    });
+    req.flush(sweepView({ id: 13, status: 'pending' }), { status: 201, statusText: 'Created' });
+    await clicked;
   });
 });

@@ -32,6 +32,8 @@ import { plannedPointCount, type SweepKind, type SweepPlan } from '../../../shar
 import type { BenchView, SweepView } from '../../../shared/hub/messages';
 import { apiErrorBody, apiErrorMessage } from '../core/api-error-message';
 import { SweepsApi } from '../core/sweeps-api';
+import { ValveRecordPicker } from '../valves/valve-record-picker';
+import type { ValveView } from '../valves/valves-api';
 import type { ValveTypeView } from '../core/valve-types-api';
 import { StartSweepDialog, type StartSweepDialogData } from './start-sweep-dialog';
 import { vg1Range, vg1Steps } from './vg1-steps';
@@ -87,6 +89,7 @@ const NO_LIMITS: PlanLimits = {
     MatInputModule,
     MatSelectModule,
     ReactiveFormsModule,
+    ValveRecordPicker,
   ],
   templateUrl: './sweep-plan-form.html',
   styleUrl: './sweep-plan-form.scss',
@@ -134,6 +137,8 @@ export class SweepPlanForm {
   );
   private readonly serverProblems = signal<Partial<Record<ProblemKey, string>>>({});
   protected readonly submitting = signal(false);
+  /** The valve record the sweep is saved to, or null. */
+  protected readonly valveRecord = signal<ValveView | null>(null);
   protected readonly formError = signal<string | null>(null);
 
   protected readonly selectedType = computed(
@@ -258,6 +263,16 @@ export class SweepPlanForm {
     });
   }
 
+  /** A picked record sets the type and label from the record. */
+  protected pickRecord(valve: ValveView | null): void {
+    this.valveRecord.set(valve);
+    if (!valve) return;
+    if (this.valveTypes().some((t) => t.designation === valve.type)) {
+      this.form.controls.valveType.setValue(valve.type);
+    }
+    this.form.controls.valveLabel.setValue(valve.label);
+  }
+
   /** The message shown at a field, or null. */
   protected problem(key: ProblemKey): string | null {
     return this.problems().get(key) ?? null;
@@ -281,6 +296,7 @@ export class SweepPlanForm {
       return;
     }
     const v = this.value();
+    const valveId = this.valveRecord()?.id ?? null;
     const data: StartSweepDialogData = {
       benchName: bench.name,
       plan,
@@ -302,6 +318,7 @@ export class SweepPlanForm {
               plan,
               ...(data.valveType ? { valveType: data.valveType } : {}),
               ...(data.valveLabel ? { valveLabel: data.valveLabel } : {}),
+              ...(valveId !== null ? { valveId } : {}),
               ...(data.override ? { override: true } : {}),
             })
             .pipe(finalize(() => this.submitting.set(false))),

@@ -10,6 +10,8 @@ export interface StartSweepRequest {
   plan: SweepPlan;
   valveType?: string;
   valveLabel?: string;
+  /** Valve record the sweep is saved to. */
+  valveId?: number;
   /** Admin only: check the plan against the bench limits alone, not the type's ratings. */
   override?: boolean;
 }

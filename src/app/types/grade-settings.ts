@@ -17,8 +17,8 @@ import { TypesApi } from './types-api';
     <p>
       A valve is graded by the lower of its gm and Ia at its type's reference operating point (the
       first typical point), as a percentage of the data-sheet figure there:
-      <strong>strong</strong> from {{ shown().strongMinPercent }} %, <strong>fair</strong> from
-      {{ shown().fairMinPercent }} %, <strong>weak</strong> below.
+      <strong>strong</strong> from {{ shown().strongMinPercent }}&nbsp;%, <strong>fair</strong> from
+      {{ shown().fairMinPercent }}&nbsp;%, <strong>weak</strong> below.
     </p>
     <p class="muted">
       The defaults ({{ defaults.strongMinPercent }} % and {{ defaults.fairMinPercent }} %) follow

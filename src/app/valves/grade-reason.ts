@@ -13,8 +13,14 @@ export function latestFigures(trend: readonly SweepFigures[]): SweepFigures | nu
  * Why a valve has its grade, e.g. "gm 64 % of nominal at 250 V / -2 V": the grade follows the
  * lower of the gm and Ia percentages, so that one is named.
  */
-export function gradeReason(figures: SweepFigures | null, point: ReferencePoint): string {
-  if (!figures) return 'No sweep with figures at the reference point yet.';
+export function gradeReason(trend: readonly SweepFigures[], point: ReferencePoint): string {
+  const figures = latestFigures(trend);
+  if (!figures) {
+    const newest = trend.at(-1);
+    return newest?.refusal
+      ? `No figures from the newest sweep: ${newest.refusal}.`
+      : 'No sweep with figures at the reference point yet.';
+  }
   const gm = figures.gmPercent;
   const ia = figures.iaPercent;
   const useGm = gm !== null && (ia === null || gm <= ia);

@@ -7,6 +7,7 @@ import { MatIconTestingModule } from '@angular/material/icon/testing';
 import { provideRouter } from '@angular/router';
 import { provideEchartsCore } from 'ngx-echarts';
 import { storeSession, sweepView, VALVE_TYPE_VIEWS } from '../../testing/fixtures';
+import { gradeReason } from './grade-reason';
 import { photoProblem } from './valve-photos';
 import { ValveRecord } from './valve-record';
 import { valveView } from './valve-view-fixture';
@@ -159,5 +160,44 @@ describe('photoProblem', () => {
       '5 MiB',
     );
     expect(photoProblem({ name: 'a.png', type: 'image/png', size: 1000 })).toBeNull();
+  });
+});
+
+describe('gradeReason', () => {
+  const point = {
+    vaVolts: 250,
+    vg2Volts: 250,
+    vg1Volts: -13.5,
+    iaMilliamps: 100,
+    gmMicrosiemens: 11000,
+  };
+  const figures = {
+    sweepId: 1,
+    at: '2026-11-01T10:00:00Z',
+    vaVolts: 250,
+    vg1Volts: -13.5,
+    iaMilliamps: 70,
+    gmMicrosiemens: 9000,
+    raKiloohms: null,
+    mu: null,
+    iaPercent: 70,
+    gmPercent: 82,
+    refusal: null,
+  };
+
+  it('names Ia when Ia is the lower percentage, with the screen voltage', () => {
+    expect(gradeReason([figures], point)).toBe('Ia 70 % of nominal at 250 V / -13.5 V (Vg2 250 V)');
+  });
+
+  it('gives the reason of the newest sweep when it has no figures', () => {
+    const refused = {
+      ...figures,
+      iaPercent: null,
+      gmPercent: null,
+      refusal: 'gm is undefined there',
+    };
+    expect(gradeReason([refused], point)).toBe(
+      'No figures from the newest sweep: gm is undefined there.',
+    );
   });
 });

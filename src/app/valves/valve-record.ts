@@ -98,7 +98,7 @@ export class ValveRecord {
   });
   protected readonly reason = computed(() => {
     const v = this.valve();
-    return v ? gradeReason(this.latest(), v.referencePoint) : '';
+    return v ? gradeReason(v.trend, v.referencePoint) : '';
   });
   private readonly type = computed(
     () => this.types().find((t) => t.designation === this.valve()?.type) ?? null,
