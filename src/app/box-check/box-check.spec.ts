@@ -249,3 +249,25 @@ describe('BoxCheck', () => {
     expect(live.abortedQuickTests).toEqual([9]);
   });
 });
+
+describe('partSummary', () => {
+  it('shows a grid current that rounds to zero without a minus sign', async () => {
+    const { partSummary } = await import('./part-figures');
+    const summary = partSummary({
+      part: 'grid-current',
+      status: 'done',
+      message: null,
+      errorCode: null,
+      result: {
+        part: 'grid-current',
+        vaVolts: 250,
+        vg1Volts: -2,
+        vg2Volts: 0,
+        iaMilliamps: 1,
+        ig1Microamps: -0.001,
+        gridKiloohms: 1000,
+      },
+    });
+    expect(summary.figures[0].value).toBe('0.00 µA');
+  });
+});

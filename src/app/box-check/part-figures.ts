@@ -17,7 +17,9 @@ export interface PartSummary {
 }
 
 function fixed(x: number, digits: number): string {
-  return x.toFixed(digits).replace('-', '\u2212');
+  const text = x.toFixed(digits);
+  // A reading that rounds to zero shows no sign ("-0.00" reads as reverse current).
+  return Number(text) === 0 ? (0).toFixed(digits) : text.replace('-', '\u2212');
 }
 
 /** The figures of one part's result, with units (µA, mA/V, mA, V, %). */
@@ -49,7 +51,7 @@ export function partSummary(outcome: PartOutcome): PartSummary {
       name: `emission at ${fixed(r.vaVolts, 0)} V`,
       value: r.overRange
         ? `over range (≥ ${fixed(r.milliamps, 1)} mA)`
-        : `${fixed(r.milliamps, 2)} mA · ${fixed(r.percent, 0)} % of a sound valve`,
+        : `${fixed(r.milliamps, 2)} mA · ${fixed(r.percent, 0)} % of sound`,
     });
   } else if (r?.part === 'reduced-heater') {
     const change = -r.dropPercent;
