@@ -135,6 +135,36 @@ export function createMatchSetService(props: MatchSetServiceProps) {
     return set;
   }
 
+  /** Ends a reservation: the set becomes released or sold, its reserved valves follow. */
+  async function closeSet(id: number, user: AuthUser, outcome: 'released' | 'sold') {
+    const set = await requireSet(id);
+    if (set.status !== 'reserved') {
+      throw new HttpError(409, 'not_reserved', `set ${set.code} is ${set.status}, not reserved`);
+    }
+    const valveStatus = outcome === 'sold' ? 'sold' : 'in-stock';
+    const members = (await listMembers(db, [id])).filter((m) => m.status === 'reserved');
+    const now = new Date().toISOString();
+    await db.transaction().execute(async (trx) => {
+      await setMatchSetStatus(trx, id, outcome, now);
+      await trx
+        .updateTable('valves')
+        .set({ status: valveStatus, updated_by: user.id, updated_at: now })
+        .where('id', 'in', members.length ? members.map((m) => m.valve_id) : [-1])
+        .where('status', '=', 'reserved')
+        .execute();
+    });
+    const verb = outcome === 'sold' ? 'sell' : 'release';
+    await audit.record(user, `match-set.${verb}`, `match-set:${id}`, { code: set.code });
+    for (const m of members) {
+      await audit.record(user, `valve.${verb}`, `valve:${m.valve_id}`, {
+        matchSet: set.code,
+        from: 'reserved',
+        to: valveStatus,
+      });
+    }
+    return detail(id);
+  }
+
   return {
     detail,
     report,
@@ -276,33 +306,10 @@ export function createMatchSetService(props: MatchSetServiceProps) {
     },
 
     /** Gives a reserved set's valves back to stock. */
-    async release(id: number, user: AuthUser) {
-      const set = await requireSet(id);
-      if (set.status !== 'reserved') {
-        throw new HttpError(409, 'not_reserved', `set ${set.code} is ${set.status}, not reserved`);
-      }
-      const members = await listMembers(db, [id]);
-      const now = new Date().toISOString();
-      const released = members.filter((m) => m.status === 'reserved');
-      await db.transaction().execute(async (trx) => {
-        await setMatchSetStatus(trx, id, 'released', now);
-        await trx
-          .updateTable('valves')
-          .set({ status: 'in-stock', updated_by: user.id, updated_at: now })
-          .where('id', 'in', released.length ? released.map((m) => m.valve_id) : [-1])
-          .where('status', '=', 'reserved')
-          .execute();
-      });
-      await audit.record(user, 'match-set.release', `match-set:${id}`, { code: set.code });
-      for (const m of released) {
-        await audit.record(user, 'valve.release', `valve:${m.valve_id}`, {
-          matchSet: set.code,
-          from: 'reserved',
-          to: 'in-stock',
-        });
-      }
-      return detail(id);
-    },
+    release: (id: number, user: AuthUser) => closeSet(id, user, 'released'),
+
+    /** Marks a reserved set and its valves sold. */
+    sell: (id: number, user: AuthUser) => closeSet(id, user, 'sold'),
 
     /** The report as a PDF, with its file name. */
     async reportPdf(id: number): Promise<{ fileName: string; pdf: Buffer }> {

@@ -72,6 +72,13 @@ export const MATCHING_ROUTES = {
     params: idParams,
     response: matchSetDetailSchema,
   },
+  'POST /api/match-sets/:id/sell': {
+    minRole: 'technician',
+    tag: 'match sets',
+    summary: 'Mark a reserved set and its valves sold',
+    params: idParams,
+    response: matchSetDetailSchema,
+  },
   'GET /api/match-sets/:id/report.pdf': {
     minRole: 'viewer',
     tag: 'match sets',

@@ -31,6 +31,7 @@ export function registerMatchingRoutes(
   mount(router, 'POST /api/match-sets/:id/release', ({ params, user }) =>
     sets.release(params.id, user),
   );
+  mount(router, 'POST /api/match-sets/:id/sell', ({ params, user }) => sets.sell(params.id, user));
   mount(router, 'GET /api/match-sets/:id/report.pdf', async ({ params }, res) => {
     const { fileName, pdf } = await sets.reportPdf(params.id);
     res.status(200).type('application/pdf').attachment(fileName).send(pdf);

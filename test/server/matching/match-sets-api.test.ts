@@ -298,6 +298,22 @@ describe('matching runs and match sets', () => {
       .post('/api/match-sets', { valveIds: [planted[0], planted[1]], valveType: '12AX7' })
       .expect(201);
   });
+
+  it('sells a reserved pair, and a sold set can no longer be released', async () => {
+    const pair = await as(tech)
+      .post('/api/match-sets', { valveIds: [planted[2], planted[3]], valveType: '12AX7' })
+      .expect(201);
+    expect(pair.body.figures.acceptable).toBe(true);
+    await as(viewer).post(`/api/match-sets/${pair.body.id}/sell`).expect(403);
+    const sold = await as(tech).post(`/api/match-sets/${pair.body.id}/sell`).expect(200);
+    expect(sold.body.status).toBe('sold');
+    expect(sold.body.members.map((m: { status: string }) => m.status)).toEqual(['sold', 'sold']);
+    await as(tech).post(`/api/match-sets/${pair.body.id}/release`).expect(409);
+    const again = await as(tech)
+      .post('/api/match-sets', { valveIds: [planted[2], scattered[1]], valveType: '12AX7' })
+      .expect(409);
+    expect(again.body.error.fields).toEqual({ [`valve.${planted[2]}`]: 'sold' });
+  });
 });
 
 /** A request whose answer body is kept as a Buffer. */
