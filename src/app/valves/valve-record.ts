@@ -146,6 +146,14 @@ export class ValveRecord {
     });
   }
 
+  /** A measured or nominal figure to three significant digits: 0.0545 mA stays readable. */
+  protected figure(value: number | null): string {
+    if (value === null) return '—';
+    return Math.abs(value) >= 100
+      ? String(Math.round(value * 10) / 10)
+      : String(Number(value.toPrecision(3)));
+  }
+
   protected save(): void {
     const v = this.valve();
     if (!v || this.form.invalid) return;
