@@ -1,4 +1,5 @@
 import type { QuickTestGradeName } from '../../../shared/grading/grade-quick-test';
+import type { QuickTestStatus } from '../../../shared/hub/messages';
 
 /** Colour family of a box-check grade chip. */
 export type GradeTone = 'good' | 'middling' | 'low' | 'fail' | 'none';
@@ -21,7 +22,14 @@ const LOOKS: Record<QuickTestGradeName, GradeLook> = {
   incomplete: { text: 'Incomplete', tone: 'none' },
 };
 
-/** The look of a grade, or of a test that ended without one (null). */
-export function gradeLook(grade: QuickTestGradeName | null): GradeLook {
-  return grade ? LOOKS[grade] : { text: 'No grade', tone: 'none' };
+const ENDED_UNGRADED: Partial<Record<QuickTestStatus, string>> = {
+  aborted: 'Aborted',
+  'link-lost': 'Link lost',
+  failed: 'Not graded',
+};
+
+/** The look of a grade, or of a test that ended without one (grade null) by how it ended. */
+export function gradeLook(grade: QuickTestGradeName | null, status?: QuickTestStatus): GradeLook {
+  if (grade) return LOOKS[grade];
+  return { text: (status && ENDED_UNGRADED[status]) ?? 'No grade', tone: 'none' };
 }

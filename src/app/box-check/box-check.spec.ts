@@ -247,6 +247,14 @@ describe('BoxCheck', () => {
     req.flush({}, { status: 202, statusText: 'Accepted' });
     await fixture.whenStable();
     expect(live.abortedQuickTests).toEqual([9]);
+    live.messages$.next({
+      type: 'quick-test',
+      quickTest: quickTest({ status: 'aborted', endMessage: 'aborted on request; outputs off' }),
+    });
+    await fixture.whenStable();
+    const row = page().querySelector('table.results tbody tr');
+    expect(row?.textContent).toContain('Aborted');
+    expect(row?.textContent).toContain('aborted on request; outputs off');
   });
 });
 

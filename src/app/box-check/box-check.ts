@@ -23,7 +23,7 @@ import { RouterLink } from '@angular/router';
 import { filter } from 'rxjs';
 import type { QuickTestGradeName } from '../../../shared/grading/grade-quick-test';
 import { partTitle } from '../../../shared/grading/quick-test-results';
-import type { BenchView, QuickTestView } from '../../../shared/hub/messages';
+import type { BenchView, QuickTestStatus, QuickTestView } from '../../../shared/hub/messages';
 import { apiErrorMessage } from '../core/api-error-message';
 import { BenchesApi } from '../core/benches-api';
 import { LiveConnection } from '../core/live-connection';
@@ -39,6 +39,8 @@ export interface BoxCheckRow {
   valveType: string;
   valveId: number | null;
   grade: QuickTestGradeName | null;
+  /** How the test ended. */
+  status: QuickTestStatus;
   reason: string;
   /** ISO time the test ended. */
   endedAt: string;
@@ -115,7 +117,9 @@ export class BoxCheck {
     return t && t.stepCount > 0 ? (100 * t.stepsDone) / t.stepCount : 0;
   });
   protected readonly parts = computed(() => (this.test()?.results ?? []).map(partSummary));
-  protected readonly look = computed(() => gradeLook(this.finished()?.grade?.grade ?? null));
+  protected readonly look = computed(() =>
+    gradeLook(this.finished()?.grade?.grade ?? null, this.finished()?.status),
+  );
   protected readonly gradeLook = gradeLook;
   protected readonly canStart = computed(
     () => this.valve() !== null && this.benchId() !== null && !this.running() && !this.starting(),
@@ -241,6 +245,7 @@ export class BoxCheck {
       valveType: view.valveType,
       valveId: view.valveId,
       grade: view.grade?.grade ?? null,
+      status: view.status,
       reason: view.grade?.reason ?? view.endMessage ?? view.status,
       endedAt: view.endedAt ?? new Date().toISOString(),
     };
