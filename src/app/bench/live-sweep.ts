@@ -4,14 +4,17 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { plannedPointCount, type SweepPoint } from '../../../shared/domain/sweep';
 import type { BenchView, SweepView } from '../../../shared/hub/messages';
-import { SweepChart } from '../sweeps/sweep-chart';
+import { FamilyAnalysis } from '../analysis/family-analysis';
 import { sweepStatusLabel } from '../sweeps/sweep-status-label';
 import { SweepStatusChip } from '../sweeps/sweep-status-chip';
 
-/** The sweep on a bench as it happens: progress, latest readings, the curves, how it ended. */
+/**
+ * The sweep on a bench as it happens: progress, latest readings, the curves with their analysis
+ * (recomputed as points arrive), how it ended.
+ */
 @Component({
   selector: 'app-live-sweep',
-  imports: [DatePipe, MatIconModule, MatProgressBarModule, SweepChart, SweepStatusChip],
+  imports: [DatePipe, FamilyAnalysis, MatIconModule, MatProgressBarModule, SweepStatusChip],
   templateUrl: './live-sweep.html',
   styleUrl: './live-sweep.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -16,6 +16,7 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
 import { catchError, concat, EMPTY, of, scan, switchMap } from 'rxjs';
 import { plannedPointCount } from '../../../shared/domain/sweep';
+import { FamilyAnalysis } from '../analysis/family-analysis';
 import { apiErrorMessage } from '../core/api-error-message';
 import { LiveConnection } from '../core/live-connection';
 import { dispositionFileName, saveBlob } from '../core/save-blob';
@@ -25,20 +26,19 @@ import {
   type SweepWatchState,
 } from '../core/sweep-watch-state';
 import { SweepsApi, type ExportFormat } from '../core/sweeps-api';
-import { SweepChart } from './sweep-chart';
 import { sweepStatusLabel } from './sweep-status-label';
 import { SweepStatusChip } from './sweep-status-chip';
 
-/** One sweep: its conditions, how it ended, its curves, and its data as CSV or JSON. */
+/** One sweep: its curves and their analysis, conditions, end state, and data as CSV or JSON. */
 @Component({
   selector: 'app-sweep-detail',
   imports: [
     DatePipe,
+    FamilyAnalysis,
     MatButtonModule,
     MatIconModule,
     MatProgressBarModule,
     RouterLink,
-    SweepChart,
     SweepStatusChip,
   ],
   templateUrl: './sweep-detail.html',
