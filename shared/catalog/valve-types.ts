@@ -233,7 +233,8 @@ export function hasScreen(c: ValveClass): boolean {
 /**
  * A default anode-family plan for a type: Va from 0 to its maximum (capped at 400 V), grid
  * steps around the reference operating point, dissipation held to 75 % of the rated maximum
- * (common practice: idle at or below about 70-80 % of Pa max).
+ * (common practice: idle at or below about 70-80 % of Pa max) unless the reference point needs
+ * more, never above the rating.
  */
 export function defaultPlan(t: ValveTypeData): SweepPlan {
   const op = t.operatingPoints[0];
@@ -243,7 +244,10 @@ export function defaultPlan(t: ValveTypeData): SweepPlan {
   const curves = Math.min(12, Math.floor(gridSpan / step + 1e-9) + 1);
   // Grid supplies of home-built tracers commonly reach -100 V; deeper curves are left out.
   const vg1Volts = Array.from({ length: curves }, (_, i) => round2(-i * step) || 0).filter((v) => v >= -100);
-  const paMax = round2(t.ratings.paMaxWatts * 0.75);
+  // Common practice idles a valve at or below 70-80 % of Pa max; a sweep must still reach the
+  // reference operating point, which some data sheets put at the full rating (EL34: 25 W).
+  const opWatts = (op.vaVolts * op.iaMilliamps) / 1000;
+  const paMax = round2(Math.min(t.ratings.paMaxWatts, Math.max(t.ratings.paMaxWatts * 0.75, opWatts * 1.05)));
   const iaMax = Math.min(round2(Math.max(op.iaMilliamps * 2.5, (paMax * 1000) / vaStop)), 250);
   return {
     kind: 'anode',
