@@ -8,9 +8,9 @@ import { DEMO_LABEL_PREFIX, DEMO_STOCK } from './demo-stock';
 /**
  * Seeds the demo stock into an empty valves table, in one transaction, and sets the label
  * scheme to the demo workshop's prefix (unless an admin has set one) so that new valves
- * continue its numbering.
+ * continue its numbering. Returns the number of valves added (0 when the table had valves).
  */
-export async function seedDemoStock(db: HubDb, logger: Logger): Promise<void> {
+export async function seedDemoStock(db: HubDb, logger: Logger): Promise<number> {
   const added = await db.transaction().execute(async (trx) => {
     const any = await trx.selectFrom('valves').select('id').limit(1).executeTakeFirst();
     if (any) return 0;
@@ -54,4 +54,5 @@ export async function seedDemoStock(db: HubDb, logger: Logger): Promise<void> {
     return DEMO_STOCK.length;
   });
   if (added > 0) logger.info(`demo stock of ${DEMO_WORKSHOP} created (${added} valves)`);
+  return added;
 }

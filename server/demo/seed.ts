@@ -8,8 +8,12 @@ import type { HubDb } from '../db/database';
 import type { Logger } from '../http/error-middleware';
 import { DEMO_BENCHES, DEMO_USERS, DEMO_WORKSHOP } from './demo-data';
 import { seedDemoStock } from './seed-demo-stock';
+import { seedDemoSweeps } from './seed-demo-sweeps';
 
-/** Seeds demo users, benches and valve stock into whichever of those tables is empty. */
+/**
+ * Seeds demo users, benches and valve stock into whichever of those tables is empty; new demo
+ * stock comes with a sweep for each valve the simulator can model.
+ */
 export async function seedDemo(db: HubDb, logger: Logger): Promise<void> {
   const now = new Date().toISOString();
   if ((await countUsers(db)) === 0) {
@@ -40,7 +44,10 @@ export async function seedDemo(db: HubDb, logger: Logger): Promise<void> {
     }
     logger.info('demo benches created');
   }
-  await seedDemoStock(db, logger);
+  if ((await seedDemoStock(db, logger)) > 0) {
+    const sweeps = await seedDemoSweeps(db);
+    logger.info(`demo sweeps created (${sweeps})`);
+  }
 }
 
 /**

@@ -7,6 +7,7 @@ import { korenTriodeIa, type KorenTriodeParams } from '../../../shared/physics/k
 import { splitRouteKey } from '../../../server/http/route-spec';
 import { ROUTES } from '../../../server/route-table';
 import { smallTriodePlan, startTestHub, type TestHub } from '../test-hub';
+import { clearDemoSweeps } from '../demo/clear-demo-sweeps';
 
 /** Koren's published 12AX7 set (Glass Audio 8(5), 1996), as the catalog carries it. */
 const KOREN_12AX7 = VALVE_TYPES.find((t) => t.designation === '12AX7')!.model!
@@ -117,6 +118,8 @@ describe('matching runs and match sets', () => {
 
   beforeAll(async () => {
     hub = await startTestHub({ devSmtpPort: 0 });
+    // These tests assume stock without sweeps; the demo's sweeps are tested on their own.
+    await clearDemoSweeps(hub);
     [tech, admin, viewer] = await Promise.all([
       hub.token('tech'),
       hub.token('admin'),

@@ -12,6 +12,7 @@ import {
   startTestHub,
   type TestHub,
 } from '../test-hub';
+import { clearDemoSweeps } from '../demo/clear-demo-sweeps';
 
 type Bridge = Awaited<ReturnType<typeof connectBridge>>;
 
@@ -63,6 +64,8 @@ describe('sweeps on valve records', () => {
 
   beforeAll(async () => {
     hub = await startTestHub();
+    // These tests assume stock without sweeps; the demo's sweeps are tested on their own.
+    await clearDemoSweeps(hub);
     bridge = await connectBridge(hub, 0);
     [tech, admin, viewer] = await Promise.all([
       hub.token('tech'),

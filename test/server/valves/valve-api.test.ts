@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_BENCHES } from '../../../server/demo/demo-data';
 import { DEMO_STOCK } from '../../../server/demo/demo-stock';
 import { startTestHub, type TestHub } from '../test-hub';
+import { clearDemoSweeps } from '../demo/clear-demo-sweeps';
 
 type Valve = { id: number; label: string; type: string; status: string; location: string | null };
 
@@ -13,6 +14,8 @@ describe('valve records API', () => {
 
   beforeAll(async () => {
     hub = await startTestHub();
+    // These tests assume stock without sweeps; the demo's sweeps are tested on their own.
+    await clearDemoSweeps(hub);
     [admin, tech, viewer] = await Promise.all([
       hub.token('admin'),
       hub.token('tech'),
