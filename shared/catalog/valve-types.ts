@@ -248,7 +248,9 @@ export function defaultPlan(t: ValveTypeData): SweepPlan {
   // reference operating point, which some data sheets put at the full rating (EL34: 25 W).
   const opWatts = (op.vaVolts * op.iaMilliamps) / 1000;
   const paMax = round2(Math.min(t.ratings.paMaxWatts, Math.max(t.ratings.paMaxWatts * 0.75, opWatts * 1.05)));
-  const iaMax = Math.min(round2(Math.max(op.iaMilliamps * 2.5, (paMax * 1000) / vaStop)), 250);
+  // Leave headroom between the curve limit and the trip, inside a 250 mA measuring range, so a
+  // curve that overshoots its limit by one step ends the curve rather than the sweep.
+  const iaMax = Math.min(round2(Math.max(op.iaMilliamps * 2.5, (paMax * 1000) / vaStop)), 160);
   return {
     kind: 'anode',
     vaStartVolts: 0,
