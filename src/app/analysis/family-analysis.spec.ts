@@ -92,6 +92,16 @@ describe('FamilyAnalysis', () => {
     expect(host().querySelector('.key')?.textContent).toContain(
       'Anode dissipation limit, Pa max 1 W',
     );
+
+    // The bench goes on to its next sweep: the tools start afresh.
+    fixture.componentRef.setInput('sweepId', 4);
+    await fixture.whenStable();
+    await vi.waitFor(
+      () => expect(seriesIds().some((id) => id.startsWith('analysis-'))).toBe(false),
+      { timeout: 5000 },
+    );
+    expect(host().textContent).toContain('Draw a load line');
+    expect(host().querySelector('app-operating-point-panel [data-figure]')).toBeNull();
   });
 
   it('asks the type library nothing before there is a family, and says what it needs', async () => {

@@ -2,9 +2,11 @@ import {
   ChangeDetectionStrategy,
   Component,
   computed,
+  effect,
   inject,
   input,
   signal,
+  untracked,
   viewChild,
 } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
@@ -74,6 +76,8 @@ export class FamilyAnalysis {
   /** Text over the empty chart. */
   readonly emptyText = input('No points yet');
 
+  /** Keys the template's one block by sweep, so a new sweep gets fresh tools and chart. */
+  protected readonly sweepKey = computed(() => [this.sweepId()]);
   protected readonly anode = computed(() => this.plan().kind === 'anode');
   private readonly anodePoints = computed(() => (this.anode() ? this.points() : NO_POINTS));
   protected readonly familyState = throttledFamily(this.anodePoints);
@@ -155,6 +159,16 @@ export class FamilyAnalysis {
     if (m) out.push(markerOverlay({ vaVolts: m.vaVolts, iaMilliamps: m.iaMilliamps.value }, dark));
     return out;
   });
+
+  constructor() {
+    effect(() => {
+      this.sweepId();
+      untracked(() => {
+        this.marker.set(null);
+        this.cursor.set(null);
+      });
+    });
+  }
 
   /** A click on the chart places the marker at (Va, Ia), to the fields' precision. */
   protected placeMarker(at: ChartPoint): void {

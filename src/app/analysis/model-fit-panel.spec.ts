@@ -46,25 +46,49 @@ function readBlob(blob: Blob): Promise<string> {
   });
 }
 
+function render(points: SweepPoint[], start: KorenModel) {
+  TestBed.configureTestingModule({
+    imports: [ModelFitPanel],
+    providers: [
+      importProvidersFrom(MatIconTestingModule),
+      { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+    ],
+  });
+  const fixture = TestBed.createComponent(ModelFitPanel);
+  fixture.componentRef.setInput('points', points);
+  fixture.componentRef.setInput('start', { model: start, source: 'a test start' });
+  fixture.componentRef.setInput('designation', '12AX7');
+  fixture.componentRef.setInput('sweepId', 7);
+  fixture.componentRef.setInput('valveLabel', 'shelf 3');
+  return fixture;
+}
+
 describe('ModelFitPanel', () => {
-  it('fits, shows RMS % and parameters with uncertainties, and downloads a SPICE subcircuit', async () => {
-    TestBed.configureTestingModule({
-      imports: [ModelFitPanel],
-      providers: [
-        importProvidersFrom(MatIconTestingModule),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      ],
+  it('warns when the model cannot describe the readings', async () => {
+    // A cathode still warming up: each later (more negative) curve carries more current.
+    const cold = koren12ax7Points().map((p) => ({
+      ...p,
+      iaMilliamps: p.iaMilliamps * (0.05 + 0.6 * p.curve),
+    }));
+    const fixture = render(cold, TRUTH);
+    await fixture.whenStable();
+    const host = fixture.nativeElement as HTMLElement;
+    const loader = TestbedHarnessEnvironment.loader(fixture);
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Fit model' }))).click();
+    await vi.waitFor(() => expect(host.querySelector('.verdict')).not.toBeNull(), {
+      timeout: 20_000,
     });
-    const fixture = TestBed.createComponent(ModelFitPanel);
+    expect(firstNumber(tileText(host, 'rms'))).toBeGreaterThan(5);
+    expect(host.querySelector('.verdict')?.getAttribute('data-tone')).toBe('warn');
+    expect(host.querySelector('.verdict')?.textContent).toContain('Poor fit');
+  });
+
+  it('fits, shows RMS % and parameters with uncertainties, and downloads a SPICE subcircuit', async () => {
     const start: KorenModel = {
       kind: 'triode',
       params: { mu: 85, ex: 1.3, kg1: 1400, kp: 450, kvb: 500 },
     };
-    fixture.componentRef.setInput('points', koren12ax7Points());
-    fixture.componentRef.setInput('start', { model: start, source: 'a test start' });
-    fixture.componentRef.setInput('designation', '12AX7');
-    fixture.componentRef.setInput('sweepId', 7);
-    fixture.componentRef.setInput('valveLabel', 'shelf 3');
+    const fixture = render(koren12ax7Points(), start);
     await fixture.whenStable();
     const loader = TestbedHarnessEnvironment.loader(fixture);
     const host = fixture.nativeElement as HTMLElement;
@@ -77,6 +101,7 @@ describe('ModelFitPanel', () => {
     await fixture.whenStable();
 
     expect(tileText(host, 'rms')).toBe('0.00%');
+    expect(host.querySelector('.verdict')?.textContent).toContain('Close fit.');
     const param = (name: string) =>
       host.querySelector(`[data-param="${name}"] td`)!.textContent!.trim();
     expect(param('MU')).toMatch(/ ±\s/);

@@ -28,6 +28,9 @@ type FitState =
   | { status: 'refused'; reason: string };
 
 const PARAM_ORDER: readonly KorenParamName[] = ['mu', 'ex', 'kg1', 'kg2', 'kp', 'kvb'];
+/** RMS error below which a fit reads as close, and from which it reads as poor, % of full scale. */
+const FAIR_FIT_PERCENT = 2;
+const POOR_FIT_PERCENT = 5;
 
 /**
  * The Koren model fitted to the readings (off the main thread): fit quality as RMS % of the
@@ -94,6 +97,24 @@ export class ModelFitPanel {
       worst: formatFixed(d.fit.maxErrorPercent, 2),
       fullScale: String(Number(d.fit.fullScaleMilliamps.toPrecision(3))),
       readings: d.fit.pointCount,
+    };
+  });
+  /**
+   * How well the model describes the readings. The bounds are our own rule of thumb, not a
+   * published one: a sound valve's family fits the Koren model to a few per cent of full scale.
+   */
+  protected readonly verdict = computed(() => {
+    const rms = this.done()?.fit.rmsErrorPercent;
+    if (rms === undefined) return null;
+    if (rms < FAIR_FIT_PERCENT) return { tone: 'ok', sentence: 'Close fit.' };
+    if (rms < POOR_FIT_PERCENT) {
+      return { tone: 'neutral', sentence: 'Fair fit: the model misses parts of the family.' };
+    }
+    return {
+      tone: 'warn',
+      sentence:
+        'Poor fit: the model does not describe these readings. Curves that cross or sag (a ' +
+        'cathode still warming up, a fault) cannot be fitted; check the sweep.',
     };
   });
   /** Readings that arrived after the fit (a live sweep goes on). */
