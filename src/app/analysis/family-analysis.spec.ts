@@ -107,8 +107,9 @@ describe('FamilyAnalysis', () => {
   it('asks the type library nothing before there is a family, and says what it needs', async () => {
     await render(SMALL_PLAN, pointsOf(SMALL_PLAN, 5).slice(0, 4));
     http.expectNone('/api/valve-types');
-    expect(host().textContent).toContain('once three curves have four or more readings');
-    expect(host().querySelector('.family-note')?.textContent).toMatch(/at least three curves/);
+    expect(host().querySelector('app-cursor-readout')?.textContent).toContain(
+      'No gm, ra or mu yet: an anode family needs at least three curves',
+    );
   });
 
   it('gives a transfer curve the plain chart', async () => {

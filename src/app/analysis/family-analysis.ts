@@ -28,7 +28,6 @@ import {
 } from './analysis-overlays';
 import { CursorReadout } from './cursor-readout';
 import { fitStart } from './fit-start';
-import { reasonSentence } from './format-readout';
 import { LoadLinePanel } from './load-line-panel';
 import { ModelFitPanel } from './model-fit-panel';
 import type { MarkerRequest } from './operating-point';
@@ -85,15 +84,15 @@ export class FamilyAnalysis {
     const s = this.familyState();
     return s.status === 'ready' ? s.family : null;
   });
-  protected readonly familyNote = computed(() => {
+  protected readonly readoutHint = computed(() => {
     const s = this.familyState();
-    return s.status === 'refused' ? reasonSentence(s.reason) : null;
+    if (s.status === 'ready') {
+      return 'Point at the curves to read gm, ra and mu; click to place the marker.';
+    }
+    return s.status === 'refused'
+      ? `No gm, ra or mu yet: ${s.reason.replace(/\.$/, '')}.`
+      : 'gm, ra and mu can be read once three curves have four or more readings each.';
   });
-  protected readonly readoutHint = computed(() =>
-    this.family()
-      ? 'Point at the curves to read gm, ra and mu; click to place the marker.'
-      : 'gm, ra and mu can be read once three curves have four or more readings each.',
-  );
 
   // The library is asked only once there is a family to analyse.
   private readonly types = toSignal(

@@ -28,7 +28,8 @@ export interface ChartPoint {
 
 /**
  * An extra series drawn over the measured curves (load lines, markers, model curves): an ECharts
- * series option with a stable id. Overlays do not enter the legend or the current axis's range.
+ * series option with a stable id. Overlays stay out of the legend; with [crosshair] on, the
+ * readings alone set the current axis.
  */
 export type ChartOverlay = { id: string } & Record<string, unknown>;
 
