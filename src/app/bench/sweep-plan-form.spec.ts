@@ -84,6 +84,19 @@ describe('SweepPlanForm', () => {
     expect(await (await startButton()).isDisabled()).toBe(false);
   });
 
+  it('warns of a cold cathode below a 15 s warm-up (common practice: 10-20 s) and still allows it', async () => {
+    await render();
+    await chooseType('12AX7');
+    expect(await (await field('Warm-up')).getTextHints()).not.toContain(
+      'cathode may still be cold: readings low',
+    );
+    await (await input('warmupSeconds')).setValue('2');
+    expect(await (await field('Warm-up')).getTextHints()).toContain(
+      'cathode may still be cold: readings low',
+    );
+    expect(await (await startButton()).isDisabled()).toBe(false);
+  });
+
   it('holds an admin override to the bench limits, not the type ratings', async () => {
     await render(true);
     await chooseType('12AX7');

@@ -78,6 +78,9 @@ const NO_LIMITS: PlanLimits = {
  * way the hub does (checkPlan against the type's ratings and the bench's limits), shows each
  * problem beside its field, confirms the voltages in a dialog and then starts the sweep.
  */
+/** Warm-up below which the plan form warns of a cold cathode, s (common practice: 10-20 s). */
+const COLD_CATHODE_SECONDS = 15;
+
 @Component({
   selector: 'app-sweep-plan-form',
   imports: [
@@ -204,6 +207,15 @@ export class SweepPlanForm {
   protected readonly plannedPoints = computed(() => {
     const plan = this.plan();
     return plan && plan.vg1Volts.length ? plannedPointCount(plan) : 0;
+  });
+
+  /**
+   * True when the warm-up is shorter than an indirectly heated cathode needs to emit fully
+   * (common practice: about 10-20 s); such a sweep reads low and its curves may cross.
+   */
+  protected readonly shortWarmup = computed(() => {
+    const seconds = this.value().warmupSeconds;
+    return seconds !== null && seconds >= 0 && seconds < COLD_CATHODE_SECONDS;
   });
 
   /** Every problem of the plan, by where it is shown. */
