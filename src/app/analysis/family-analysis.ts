@@ -74,6 +74,8 @@ export class FamilyAnalysis {
   readonly sweepId = input(0);
   /** Text over the empty chart. */
   readonly emptyText = input('No points yet');
+  /** Series the host draws under the analysis, e.g. the type's nominal curves. */
+  readonly extraOverlays = input<readonly ChartOverlay[]>([]);
 
   /** Keys the template's one block by sweep, so a new sweep gets fresh tools and chart. */
   protected readonly sweepKey = computed(() => [this.sweepId()]);
@@ -141,7 +143,7 @@ export class FamilyAnalysis {
 
   protected readonly overlays = computed<ChartOverlay[]>(() => {
     const dark = this.theme.dark();
-    const out: ChartOverlay[] = [];
+    const out: ChartOverlay[] = [...this.extraOverlays()];
     const family = this.family();
     if (!family) return out;
     const vaMax = this.plan().vaStopVolts;

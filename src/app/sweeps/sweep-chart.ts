@@ -28,8 +28,9 @@ export interface ChartPoint {
 
 /**
  * An extra series drawn over the measured curves (load lines, markers, model curves): an ECharts
- * series option with a stable id. Overlays stay out of the legend; with [crosshair] on, the
- * readings alone set the current axis.
+ * series option with a stable id. Overlays stay out of the legend unless they have a `name`
+ * (overlays sharing a name share one entry); with [crosshair] on, the readings alone set the
+ * current axis.
  */
 export type ChartOverlay = { id: string } & Record<string, unknown>;
 
@@ -180,11 +181,14 @@ export class SweepChart {
         : measured),
       ...untracked(this.overlays),
     ];
+    const named = untracked(this.overlays)
+      .map((o) => o['name'])
+      .filter((n): n is string => typeof n === 'string');
     const ids = series.map((s) => s.id).join(',');
     const curvesChanged = ids !== this.shownIds;
     const option: EChartsCoreOption = {
       series,
-      legend: { data: [...new Set(measured.map((s) => s.name))] },
+      legend: { data: [...new Set([...measured.map((s) => s.name), ...named])] },
     };
     // Overlays such as a load line reach far above the curves: the readings set the scale.
     if (untracked(this.crosshair)) option['yAxis'] = { max: currentAxisMax(points) };
@@ -246,7 +250,8 @@ function baseChartOptions(
       right: 0,
       top: 16,
       bottom: 40,
-      textStyle: { color: text, fontFamily: mono, fontSize: 11 },
+      // Long overlay names (a nominal curve's source) are cut; the page states them in full.
+      textStyle: { color: text, fontFamily: mono, fontSize: 11, width: 100, overflow: 'truncate' },
       pageTextStyle: { color: text },
       icon: 'roundRect',
       itemWidth: 14,

@@ -1,4 +1,4 @@
-import { DatePipe, DOCUMENT } from '@angular/common';
+import { DatePipe, DecimalPipe, DOCUMENT } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -12,9 +12,10 @@ import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
-import { catchError, concat, EMPTY, of, scan, switchMap } from 'rxjs';
+import { catchError, concat, distinctUntilChanged, EMPTY, of, scan, switchMap } from 'rxjs';
 import { plannedPointCount } from '../../../shared/domain/sweep';
 import { FamilyAnalysis } from '../analysis/family-analysis';
 import { apiErrorMessage } from '../core/api-error-message';
@@ -26,6 +27,16 @@ import {
   type SweepWatchState,
 } from '../core/sweep-watch-state';
 import { SweepsApi, type ExportFormat } from '../core/sweeps-api';
+import { Theme } from '../core/theme';
+import { TypesApi } from '../types/types-api';
+import type { ChartOverlay } from './sweep-chart';
+import {
+  loadNominalSource,
+  nominalDrawing,
+  nominalOverlays,
+  referenceComparison,
+  type NominalSource,
+} from './sweep-nominal';
 import { sweepStatusLabel } from './sweep-status-label';
 import { SweepStatusChip } from './sweep-status-chip';
 
@@ -34,10 +45,12 @@ import { SweepStatusChip } from './sweep-status-chip';
   selector: 'app-sweep-detail',
   imports: [
     DatePipe,
+    DecimalPipe,
     FamilyAnalysis,
     MatButtonModule,
     MatIconModule,
     MatProgressBarModule,
+    MatSlideToggleModule,
     RouterLink,
     SweepStatusChip,
   ],
@@ -50,6 +63,8 @@ export class SweepDetail {
   private readonly live = inject(LiveConnection);
   private readonly document = inject(DOCUMENT);
   private readonly snackBar = inject(MatSnackBar);
+  private readonly typesApi = inject(TypesApi);
+  private readonly theme = inject(Theme);
 
   /** Sweep id, from the route. */
   readonly id = input.required({ transform: numberAttribute });
@@ -77,7 +92,40 @@ export class SweepDetail {
     return bench?.name ?? (sweep ? `Bench ${sweep.benchId}` : '');
   });
 
+  /** Whether the type's nominal curves are drawn over the measured ones. */
+  protected readonly showNominal = signal(true);
+  private readonly nominalSource = signal<NominalSource | null>(null);
+  /** The type's uploaded curves or published model, sampled for this sweep. */
+  protected readonly nominal = computed(() => {
+    const source = this.nominalSource();
+    const sweep = this.sweep();
+    if (!source || !sweep) return null;
+    return nominalDrawing(source.type, source.stored, sweep.plan, this.points());
+  });
+  protected readonly nominalOverlays = computed<readonly ChartOverlay[]>(() => {
+    const drawing = this.nominal();
+    return drawing && this.showNominal() ? nominalOverlays(drawing, this.theme.dark()) : [];
+  });
+  /** Ia at the type's reference point, published, nominal and measured. */
+  protected readonly reference = computed(() => {
+    const drawing = this.nominal();
+    const sweep = this.sweep();
+    return drawing && sweep ? referenceComparison(drawing, sweep.plan, this.points()) : null;
+  });
+
   constructor() {
+    // The type's nominal curves, asked once per sweep and type.
+    toObservable(computed(() => this.sweep()?.valveType ?? null))
+      .pipe(
+        distinctUntilChanged(),
+        switchMap((designation) => {
+          this.nominalSource.set(null);
+          return loadNominalSource(this.typesApi, designation);
+        }),
+        takeUntilDestroyed(),
+      )
+      .subscribe((source) => this.nominalSource.set(source));
+
     // The stored record first; a sweep still running then follows live on the socket.
     toObservable(this.id)
       .pipe(
