@@ -250,8 +250,15 @@ function baseChartOptions(
       right: 0,
       top: 16,
       bottom: 40,
-      // Long overlay names (a nominal curve's source) are cut; the page states them in full.
-      textStyle: { color: text, fontFamily: mono, fontSize: 11, width: 100, overflow: 'truncate' },
+      // Long overlay names (a nominal curve's source) wrap within the legend's column.
+      textStyle: {
+        color: text,
+        fontFamily: mono,
+        fontSize: 11,
+        width: 100,
+        overflow: 'break',
+        lineHeight: 13,
+      },
       pageTextStyle: { color: text },
       icon: 'roundRect',
       itemWidth: 14,
