@@ -1,5 +1,7 @@
 import type { Routes } from '@angular/router';
 import { authGuard } from './core/auth-guard';
+import { MATCHING_ROUTES } from './matching/matching-routes';
+import { REPORT_BARE_ROUTES, REPORT_SHELL_ROUTES } from './reports/report-routes';
 
 /** Every page loads lazily; the shell wraps the signed-in ones. */
 export const appRoutes: Routes = [
@@ -8,6 +10,7 @@ export const appRoutes: Routes = [
     title: 'Sign in · Emberline',
     loadComponent: () => import('./sign-in/sign-in').then((m) => m.SignIn),
   },
+  ...REPORT_BARE_ROUTES,
   {
     path: '',
     canActivate: [authGuard],
@@ -54,6 +57,8 @@ export const appRoutes: Routes = [
         title: 'Type · Emberline',
         loadComponent: () => import('./types/type-detail').then((m) => m.TypeDetail),
       },
+      ...MATCHING_ROUTES,
+      ...REPORT_SHELL_ROUTES,
     ],
   },
   { path: '**', redirectTo: '' },
