@@ -3,7 +3,15 @@ import type { HubDb } from '../db/database';
 import { notFound } from '../http/http-error';
 import type { ApiMount } from '../route-table';
 import { findReceived, listReceived } from './dev-mail.repository';
+import { TEXT_PREVIEW_CHARS } from './dev-mail.schemas';
 import { parseRawMessage } from './raw-message';
+
+function preview(text: string): string {
+  const trimmed = text.trim();
+  return trimmed.length <= TEXT_PREVIEW_CHARS
+    ? trimmed
+    : `${trimmed.slice(0, TEXT_PREVIEW_CHARS - 1).trimEnd()}…`;
+}
 
 /** /api/dev-mail: what the development mail server received (admin only). */
 export function registerDevMailRoutes(router: Router, mount: ApiMount, db: HubDb): void {
@@ -20,6 +28,7 @@ export function registerDevMailRoutes(router: Router, mount: ApiMount, db: HubDb
         from: m.from,
         to: m.to,
         messageId: m.messageId,
+        textPreview: m.text === null ? null : preview(m.text),
         attachments: m.attachments.map((a, index) => ({
           index,
           filename: a.filename,

@@ -5,6 +5,9 @@ export const devMailListQuery = z.object({
   limit: z.coerce.number().int().min(1).max(200).default(50),
 });
 
+/** Characters of a message's text the list shows. */
+export const TEXT_PREVIEW_CHARS = 400;
+
 /** A message the development mail server received. */
 export const devMailSchema = z.object({
   id: z.number().int(),
@@ -15,6 +18,10 @@ export const devMailSchema = z.object({
   from: z.string().nullable(),
   to: z.string().nullable(),
   messageId: z.string().nullable(),
+  textPreview: z
+    .string()
+    .nullable()
+    .describe(`The message's plain text, at most ${TEXT_PREVIEW_CHARS} characters`),
   attachments: z.array(
     z.object({
       index: z.number().int(),

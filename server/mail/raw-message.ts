@@ -4,24 +4,29 @@ export interface ParsedMessage {
   from: string | null;
   to: string | null;
   messageId: string | null;
+  /** The first text/plain part that is not an attachment, decoded; null if there is none. */
+  text: string | null;
   attachments: { filename: string; contentType: string; content: Buffer }[];
 }
 
 /**
  * Reads what the development mail view needs from a raw message: top headers (unfolded, RFC
- * 2047 encoded words decoded) and the parts that carry a file name, base64 or plain. A small
+ * 2047 encoded words decoded), the first plain-text part and the parts that carry a file name
+ * (base64, quoted-printable or plain). A small
  * reader suffices because the only sender is our own nodemailer; no full MIME parser is
  * installed.
  */
 export function parseRawMessage(raw: string): ParsedMessage {
   const { headers, body } = splitHeaders(raw);
   const attachments: ParsedMessage['attachments'] = [];
-  collectParts(headers, body, attachments);
+  const texts: string[] = [];
+  collectParts(headers, body, attachments, texts);
   return {
     subject: headers.get('subject') ?? null,
     from: headers.get('from') ?? null,
     to: headers.get('to') ?? null,
     messageId: headers.get('message-id') ?? null,
+    text: texts[0] ?? null,
     attachments,
   };
 }
@@ -43,6 +48,7 @@ function collectParts(
   headers: Map<string, string>,
   body: string,
   out: ParsedMessage['attachments'],
+  texts: string[],
 ): void {
   const type = headers.get('content-type') ?? 'text/plain';
   const boundary = /boundary="?([^";]+)"?/i.exec(type)?.[1];
@@ -51,19 +57,37 @@ function collectParts(
     for (const part of parts) {
       if (part.startsWith('--')) break;
       const { headers: h, body: b } = splitHeaders(part.replace(/^\r?\n/, ''));
-      collectParts(h, b, out);
+      collectParts(h, b, out, texts);
     }
     return;
   }
   const disposition = headers.get('content-disposition') ?? '';
   const filename = param(disposition, 'filename') ?? param(type, 'name');
-  if (!filename) return;
   const encoding = (headers.get('content-transfer-encoding') ?? '').toLowerCase();
-  const content =
-    encoding === 'base64'
-      ? Buffer.from(body.replace(/\s+/g, ''), 'base64')
-      : Buffer.from(body.replace(/\r?\n$/, ''), 'utf8');
-  out.push({ filename, contentType: type.split(';')[0].trim(), content });
+  const content = decodeBody(body, encoding);
+  const contentType = type.split(';')[0].trim();
+  if (filename) out.push({ filename, contentType, content });
+  else if (contentType.toLowerCase() === 'text/plain') {
+    texts.push(content.toString('utf8').replace(/\r\n/g, '\n'));
+  }
+}
+
+function decodeBody(body: string, encoding: string): Buffer {
+  if (encoding === 'base64') return Buffer.from(body.replace(/\s+/g, ''), 'base64');
+  const text = body.replace(/\r?\n$/, '');
+  if (encoding !== 'quoted-printable') return Buffer.from(text, 'utf8');
+  // Soft line breaks join; =XX is one byte, so multi-byte UTF-8 survives.
+  const src = Buffer.from(text.replace(/=\r?\n/g, ''), 'utf8');
+  const bytes: number[] = [];
+  const isHex = (b: number | undefined) =>
+    b !== undefined && /[0-9a-f]/i.test(String.fromCharCode(b));
+  for (let i = 0; i < src.length; i++) {
+    if (src[i] === 0x3d && isHex(src[i + 1]) && isHex(src[i + 2])) {
+      bytes.push(parseInt(src.toString('latin1', i + 1, i + 3), 16));
+      i += 2;
+    } else bytes.push(src[i]);
+  }
+  return Buffer.from(bytes);
 }
 
 function param(header: string, name: string): string | undefined {

@@ -4,8 +4,8 @@ import type { AuditService } from '../audit/audit.service';
 import type { AuthUser } from '../auth/auth-user';
 import type { HubDb } from '../db/database';
 import { HttpError, notFound } from '../http/http-error';
-import { downsampledCurves } from '../reports/downsampled-curves';
 import { findMatchSet, findShareByHash, insertShare, revokeShare } from './match-set.repository';
+import { matchReportView } from './match-report-view';
 import type { sharedMatchSetSchema } from './match-set.schemas';
 import type { MatchSetService } from './match-set.service';
 
@@ -67,8 +67,10 @@ export function createMatchSetShares({
         shareId,
         expiresAt,
       });
-      const url = `${origin}/api/shared/match-sets/${token}`;
-      return { id: shareId, url, reportUrl: `${url}/report.pdf`, token, expiresAt };
+      // The buyer opens the app's own page; the PDF stays a plain API download.
+      const url = `${origin}/shared/${token}`;
+      const reportUrl = `${origin}/api/shared/match-sets/${token}/report.pdf`;
+      return { id: shareId, url, reportUrl, token, expiresAt };
     },
 
     /** Revokes a buyer's link. */
@@ -83,21 +85,7 @@ export function createMatchSetShares({
     /** What a buyer's link shows. */
     async sharedView(token: string): Promise<z.infer<typeof sharedMatchSetSchema>> {
       const { setId, expiresAt } = await sharedSetId(token);
-      const r = await report(setId);
-      return {
-        workshop: r.workshop,
-        code: r.set.code,
-        valveType: r.set.valveType,
-        status: r.set.status,
-        createdAt: r.set.createdAt,
-        figures: r.set.figures,
-        members: r.set.members.map(({ status: _, ...m }) => ({
-          ...m,
-          curves: downsampledCurves(r.families.get(m.valveId) ?? [], 40),
-        })),
-        notes: r.notes,
-        expiresAt,
-      };
+      return { ...matchReportView(await report(setId)), expiresAt };
     },
   };
 }

@@ -125,24 +125,31 @@ export const shareParams = z.object({
 /** Params of the buyer's routes. */
 export const tokenParams = z.object({ token: z.string().min(16).max(100) });
 
-/** What a buyer's link shows: the report without people or links. */
-export const sharedMatchSetSchema = z.object({
+const reportMember = matchSetMemberSchema.omit({ status: true }).extend({
+  curves: z.array(
+    z.object({
+      vg1Volts: z.number(),
+      points: z.array(z.tuple([z.number(), z.number()])).describe('[Va V, Ia mA], downsampled'),
+    }),
+  ),
+});
+
+/** A match report as a page shows it: the set without people or links, with its curves. */
+export const matchReportSchema = z.object({
   workshop: z.string(),
   code: z.string(),
   valveType: z.string(),
   status: z.string(),
   createdAt: z.string(),
   figures: matchSetDetailSchema.shape.figures,
-  members: z.array(
-    matchSetMemberSchema.omit({ status: true }).extend({
-      curves: z.array(
-        z.object({
-          vg1Volts: z.number(),
-          points: z.array(z.tuple([z.number(), z.number()])).describe('[Va V, Ia mA], downsampled'),
-        }),
-      ),
-    }),
-  ),
-  notes: z.array(z.string()),
-  expiresAt: z.string(),
+  toleranceNote: z.string().describe('Where the tolerance comes from (common practice or set)'),
+  members: z.array(reportMember),
+  notes: z.array(z.string()).describe('What was measured and how to read the figures'),
+  cautions: z.array(z.string()).describe('Safety cautions printed on every report'),
 });
+
+/** A match report as a page shows it. */
+export type MatchReportView = z.infer<typeof matchReportSchema>;
+
+/** What a buyer's link shows: the report and when the link expires. */
+export const sharedMatchSetSchema = matchReportSchema.extend({ expiresAt: z.string() });

@@ -5,6 +5,7 @@ import { devMailAttachmentParams, devMailListQuery, devMailSchema } from '../mai
 import {
   createMatchSetBody,
   matchSetDetailSchema,
+  matchReportSchema,
   matchSetListQuery,
   matchSetPage,
   sendReportBody,
@@ -78,6 +79,14 @@ export const MATCHING_ROUTES = {
     summary: 'Mark a reserved set and its valves sold',
     params: idParams,
     response: matchSetDetailSchema,
+  },
+  'GET /api/match-sets/:id/report': {
+    minRole: 'viewer',
+    tag: 'match sets',
+    summary:
+      "The match report as the printable page shows it (the buyer's link shows the same shape)",
+    params: idParams,
+    response: matchReportSchema,
   },
   'GET /api/match-sets/:id/report.pdf': {
     minRole: 'viewer',

@@ -1,5 +1,6 @@
 import type { Request, Router } from 'express';
 import type { ApiMount } from '../route-table';
+import { matchReportView } from './match-report-view';
 import type { MatchSetShares } from './match-set-shares';
 import type { MatchSetService } from './match-set.service';
 import type { MatchingService } from './matching.service';
@@ -32,6 +33,9 @@ export function registerMatchingRoutes(
     sets.release(params.id, user),
   );
   mount(router, 'POST /api/match-sets/:id/sell', ({ params, user }) => sets.sell(params.id, user));
+  mount(router, 'GET /api/match-sets/:id/report', async ({ params }) =>
+    matchReportView(await sets.report(params.id)),
+  );
   mount(router, 'GET /api/match-sets/:id/report.pdf', async ({ params }, res) => {
     const { fileName, pdf } = await sets.reportPdf(params.id);
     res.status(200).type('application/pdf').attachment(fileName).send(pdf);

@@ -33,9 +33,28 @@ describe('parseRawMessage', () => {
     expect(m.attachments[1].content.toString('utf8')).toBe('plain words');
   });
 
-  it('finds no attachment in a plain message', async () => {
+  it('finds no attachment in a plain message, and reads its text', async () => {
     const m = parseRawMessage(await compose({ to: 'a@b.test', subject: 'hi', text: 'hello' }));
     expect(m.subject).toBe('hi');
+    expect(m.text).toBe('hello');
     expect(m.attachments).toEqual([]);
+  });
+
+  it('decodes a long quoted-printable text with non-ASCII units beside an attachment', async () => {
+    const text =
+      'Ia spread 1.2 %, gm 11 000 µS ± 2 %, within the usual 5 % tolerance. '.repeat(4) +
+      '\nSecond line = ok.';
+    const raw = await compose({
+      to: 'a@b.test',
+      subject: 'figures',
+      text,
+      attachments: [
+        { filename: 'a.pdf', content: Buffer.from('%PDF-'), contentType: 'application/pdf' },
+      ],
+    });
+    expect(raw).toMatch(/quoted-printable/i);
+    const m = parseRawMessage(raw);
+    expect(m.text).toBe(text);
+    expect(m.attachments.map((a) => a.filename)).toEqual(['a.pdf']);
   });
 });

@@ -187,6 +187,32 @@ describe('matching runs and match sets', () => {
     expect(list.body.items[0]).toMatchObject({ id: setId, code, memberCount: 4 });
   });
 
+  it('gives a signed-in reader the report with every curve, figure and caution', async () => {
+    const res = await as(viewer).get(`/api/match-sets/${setId}/report`).expect(200);
+    const r = res.body;
+    expect(r).toMatchObject({ code, valveType: '12AX7', status: 'reserved' });
+    expect(r.workshop.length).toBeGreaterThan(0);
+    expect(r.members.map((m: { valveId: number }) => m.valveId).sort()).toEqual(
+      [...planted].sort(),
+    );
+    for (const m of r.members) {
+      expect(m).not.toHaveProperty('status');
+      expect(m.curves.map((c: { vg1Volts: number }) => c.vg1Volts)).toEqual(PLAN.vg1Volts);
+      expect(m.conditions).toMatchObject({ vaStepVolts: 10, vg1Volts: PLAN.vg1Volts });
+    }
+    // The downsampled curve keeps its ends: the first and last measured points of curve 0.
+    const first = family(PLANTED[0]).filter((p) => p.curve === 0);
+    const own = r.members.find((m: { valveId: number }) => m.valveId === planted[0]);
+    expect(own.curves[0].points[0]).toEqual([first[0].vaVolts, first[0].iaMilliamps]);
+    expect(own.curves[0].points.at(-1)).toEqual([first.at(-1)!.vaVolts, first.at(-1)!.iaMilliamps]);
+    expect(r.figures.tolerancePercent).toBe(5);
+    expect(r.toleranceNote).toMatch(/common practice/);
+    expect(r.cautions.join(' ')).toMatch(/local codes and licensed practice/);
+    expect(JSON.stringify(r)).not.toMatch(/"createdBy"|"mailings"|"shares"/);
+    await hub.api.get(`/api/match-sets/${setId}/report`).expect(401);
+    await as(viewer).get('/api/match-sets/99999/report').expect(404);
+  });
+
   it('refuses to reserve a valve that is already reserved', async () => {
     const res = await as(tech)
       .post('/api/match-sets', { valveIds: [planted[0], scattered[0]], valveType: '12AX7' })
@@ -219,6 +245,8 @@ describe('matching runs and match sets', () => {
     expect(mail.messageId).toBe(sent.body.messageId);
     expect(mail.attachments).toHaveLength(1);
     expect(mail.attachments[0].filename).toBe(`match-report-${code}.pdf`);
+    expect(mail.textPreview).toMatch(/^Your quad\.\n/);
+    expect(mail.textPreview).toContain(`4 x 12AX7`);
     const file = await download(as(admin).get(`/api/dev-mail/${mail.id}/attachments/0`)).expect(
       200,
     );
@@ -234,13 +262,22 @@ describe('matching runs and match sets', () => {
       .post(`/api/match-sets/${setId}/share`, { expiresInDays: 7 })
       .expect(201);
     const { token } = share.body;
+    const origin = new URL(share.body.url).origin;
+    expect(share.body.url).toBe(`${origin}/shared/${token}`);
+    expect(share.body.reportUrl).toBe(`${origin}/api/shared/match-sets/${token}/report.pdf`);
     const view = await hub.api.get(`/api/shared/match-sets/${token}`).expect(200);
     expect(view.body.code).toBe(code);
     expect(view.body.members).toHaveLength(4);
+    expect(view.body.expiresAt).toBe(share.body.expiresAt);
     const curve = view.body.members[0].curves[0];
     expect(curve.points.length).toBeGreaterThan(2);
     expect(curve.points.length).toBeLessThanOrEqual(41);
-    expect(view.body.notes.join(' ')).toMatch(/high voltages/);
+    expect(view.body.cautions.join(' ')).toMatch(/high voltages/);
+    expect(view.body.notes.join(' ')).toMatch(/What was measured/);
+    const { expiresAt: _, ...report } = view.body;
+    expect((await as(viewer).get(`/api/match-sets/${setId}/report`).expect(200)).body).toEqual(
+      report,
+    );
     const pdf = await download(hub.api.get(`/api/shared/match-sets/${token}/report.pdf`)).expect(
       200,
     );
