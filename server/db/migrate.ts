@@ -2,6 +2,7 @@ import { Migrator, type Migration, type MigrationProvider, type MigrationResultS
 import * as initial from '../../migrations/2026-12-01-initial';
 import * as matchSets from '../../migrations/2026-12-05-match-sets';
 import * as quickTests from '../../migrations/2026-12-04-quick-tests';
+import * as quickTestPercent from '../../migrations/2026-12-06-quick-test-percent';
 import * as typeLibrary from '../../migrations/2026-12-02-type-library';
 import * as valveRecords from '../../migrations/2026-12-03-valve-records';
 import { loadConfig } from '../config';
@@ -18,14 +19,18 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-03-valve-records': valveRecords,
   '2026-12-04-quick-tests': quickTests,
   '2026-12-05-match-sets': matchSets,
+  '2026-12-06-quick-test-percent': quickTestPercent,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };
 
-/** Runs every pending migration; throws (after logging what ran) if one fails. */
-export async function migrateToLatest(db: HubDb): Promise<MigrationResultSet> {
+/**
+ * Runs every pending migration, or those up to and including `upTo` (tests of a data
+ * migration start from the schema before it); throws (after logging what ran) if one fails.
+ */
+export async function migrateToLatest(db: HubDb, upTo?: string): Promise<MigrationResultSet> {
   const migrator = new Migrator({ db, provider });
-  const result = await migrator.migrateToLatest();
+  const result = upTo ? await migrator.migrateTo(upTo) : await migrator.migrateToLatest();
   if (result.error) {
     const failed = result.results?.find((r) => r.status === 'Error')?.migrationName ?? 'unknown';
     throw new Error(`migration ${failed} failed: ${String(result.error)}`, {

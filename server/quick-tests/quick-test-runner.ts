@@ -184,6 +184,7 @@ export function createQuickTestRunner(props: QuickTestRunnerProps) {
       steps_json: JSON.stringify(run.steps),
       results_json: JSON.stringify(results),
       grade: grade?.grade ?? null,
+      grade_percent: grade?.percent ?? null,
       grade_json: grade ? JSON.stringify(grade) : null,
     });
     logger.info(

@@ -7,7 +7,9 @@ import {
   type StepOutcome,
 } from '../../shared/grading/quick-test-results';
 import type { QuickTestView } from '../../shared/hub/messages';
+import type { z } from 'zod';
 import type { QuickTestRecord } from './quick-test.repository';
+import type { quickTestSummarySchema } from './quick-test.schemas';
 
 /** What only the running quick test knows: where it is and the bench's warm-up countdown. */
 export interface QuickTestLive {
@@ -50,5 +52,28 @@ export function toQuickTestView(row: QuickTestRecord, live?: QuickTestLive): Qui
     createdAt: row.created_at,
     startedAt: row.started_at,
     endedAt: row.ended_at,
+  };
+}
+
+/** A quick test as a valve's record lists it (the gm part's figures, when it was read). */
+export function toQuickTestSummary(row: QuickTestRecord): z.output<typeof quickTestSummarySchema> {
+  const results = JSON.parse(row.results_json) as PartOutcome[];
+  const grade = row.grade_json ? (JSON.parse(row.grade_json) as QuickTestGrade) : null;
+  const gm = results.find((r) => r.part === 'gm' && r.status === 'done')?.result;
+  const g = gm?.part === 'gm' ? gm : null;
+  return {
+    id: row.id,
+    at: row.ended_at ?? row.created_at,
+    status: row.status,
+    grade: row.grade,
+    reason: grade?.reason ?? null,
+    percent: row.grade_percent,
+    vaVolts: g?.measurement.vaVolts ?? null,
+    vg1Volts: g?.measurement.vg1Volts ?? null,
+    iaMilliamps: g?.measurement.iaMilliamps ?? null,
+    gmMicrosiemens: g?.measurement.gmMicrosiemens ?? null,
+    iaPercent: g?.iaPercent ?? null,
+    gmPercent: g?.gmPercent ?? null,
+    operator: row.operator,
   };
 }

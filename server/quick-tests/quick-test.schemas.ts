@@ -172,3 +172,20 @@ export const quickTestViewSchema = z.object({
 
 /** Answer of GET /api/quick-tests. */
 export const quickTestPage = pageOf(quickTestViewSchema);
+
+/** A quick test as a valve's record lists it: when, how it ended, its grade and gm/Ia figures. */
+export const quickTestSummarySchema = z.object({
+  id: z.number().int(),
+  at: z.string().describe('When it ended (or was created, if it never ran)'),
+  status: z.enum(QUICK_TEST_STATUSES),
+  grade: z.string().nullable().describe('Grade name, or null when it ended without one'),
+  reason: z.string().nullable(),
+  percent: z.number().nullable().describe('The graded figure (gm or emission), % of nominal'),
+  vaVolts: z.number().nullable(),
+  vg1Volts: z.number().nullable(),
+  iaMilliamps: z.number().nullable(),
+  gmMicrosiemens: z.number().nullable(),
+  iaPercent: z.number().nullable(),
+  gmPercent: z.number().nullable(),
+  operator: z.string(),
+});

@@ -184,6 +184,7 @@ export function createQuickTestService(props: QuickTestServiceProps) {
           operator_id: user.id,
           status: 'pending',
           grade: null,
+          grade_percent: null,
           grade_json: null,
           end_message: null,
           created_at: new Date().toISOString(),

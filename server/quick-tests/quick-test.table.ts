@@ -19,6 +19,8 @@ export interface QuickTestTable {
   results_json: Generated<string>;
   /** Grade name once complete, for filtering; null before. */
   grade: string | null;
+  /** The graded figure (lowest of gm and emission) as % of nominal once complete, or null. */
+  grade_percent: number | null;
   /** QuickTestGrade once complete. */
   grade_json: string | null;
   /** QuickTestThresholds the test is graded by (the workshop's at the start). */

@@ -29,6 +29,8 @@ export function toValveView(r: ValveRecord): ValveView {
     notes: r.notes,
     grade: r.grade === 'ungraded' ? null : r.grade,
     percentOfNominal: sig(r.grade_percent),
+    gradeSource: r.grade_source,
+    gradedAt: r.graded_at,
     sweepCount: Number(r.sweep_count),
     lastSweepAt: r.last_sweep_at,
     createdBy: r.created_by_name,

@@ -1,5 +1,6 @@
 import { sql, type Insertable, type Selectable, type Updateable } from 'kysely';
-import type { GradeThresholds } from '../../shared/grading/grade-thresholds';
+import { HARD_FAILS, type HardFail } from '../../shared/grading/grade-quick-test';
+import type { GradeThresholds, ValveGrade } from '../../shared/grading/grade-thresholds';
 import type { HubDb } from '../db/database';
 import type { ValveStatus } from './valve-status';
 import type { ValveTable } from './valve.table';
@@ -11,9 +12,15 @@ export type ValveRecord = Selectable<ValveTable> & {
   updated_by_name: string | null;
   sweep_count: number;
   last_sweep_at: string | null;
-  /** Lower of gm and Ia as % of nominal, from the newest sweep with figures; null if none. */
+  /**
+   * The graded figure as % of nominal (gradedPercent: gm, else Ia) from the newest sweep with
+   * figures or completed quick test; null if none.
+   */
   grade_percent: number | null;
-  grade: 'strong' | 'fair' | 'weak' | 'ungraded';
+  /** What the grade was taken from, and when. */
+  grade_source: 'sweep' | 'quick-test' | null;
+  graded_at: string | null;
+  grade: ValveGrade | HardFail | 'ungraded';
 };
 
 /**
@@ -43,30 +50,49 @@ function valvesWithGrade(db: HubDb, t: GradeThresholds) {
         .select((sb) => sb.fn.max('s.created_at').as('m'))
         .whereRef('s.valve_id', '=', 'v.id')
         .as('last_sweep_at'),
-      eb
-        .selectFrom('sweep_figures as f')
-        .innerJoin('sweeps as s', 's.id', 'f.sweep_id')
-        .select(
-          sql<number | null>`min(coalesce(f.gm_percent, f.ia_percent),
-            coalesce(f.ia_percent, f.gm_percent))`.as('p'),
-        )
-        .whereRef('s.valve_id', '=', 'v.id')
-        .where('f.refusal', 'is', null)
-        .orderBy('s.created_at', 'desc')
-        .orderBy('s.id', 'desc')
-        .limit(1)
-        .as('grade_percent'),
+      newestGradedMeasurement().as('graded'),
     ]);
+  const percent = sql<number | null>`json_extract(x.graded, '$.p')`;
+  const fail = sql<string | null>`json_extract(x.graded, '$.fail')`;
   return db
     .selectFrom(inner.as('x'))
     .selectAll('x')
-    .select(
+    .select([
+      percent.as('grade_percent'),
+      sql<ValveRecord['grade_source']>`json_extract(x.graded, '$.source')`.as('grade_source'),
+      sql<string | null>`json_extract(x.graded, '$.at')`.as('graded_at'),
       sql<ValveRecord['grade']>`case
-        when x.grade_percent is null then 'ungraded'
-        when x.grade_percent >= ${t.strongMinPercent} then 'strong'
-        when x.grade_percent >= ${t.fairMinPercent} then 'fair'
+        when ${fail} is not null then ${fail}
+        when ${percent} is null then 'ungraded'
+        when ${percent} >= ${t.strongMinPercent} then 'strong'
+        when ${percent} >= ${t.fairMinPercent} then 'fair'
         else 'weak' end`.as('grade'),
-    );
+    ]);
+}
+
+/**
+ * The valve's newest graded measurement as JSON text {p, fail, source, at}: a sweep with
+ * figures at the reference point (p = gradedPercent of its gm and Ia) or a completed quick test
+ * (p = its graded figure; fail = its hard fail, if any). A correlated subquery on `v`.
+ */
+function newestGradedMeasurement() {
+  const hardFails = sql.join(HARD_FAILS.map((f) => sql.lit(f)));
+  return sql<string | null>`(select json_object('p', m.p, 'fail', m.fail, 'source', m.source,
+      'at', m.at)
+    from (
+      select s.created_at as at, s.id as k, 'sweep' as source,
+        coalesce(f.gm_percent, f.ia_percent) as p, null as fail
+      from sweep_figures f join sweeps s on s.id = f.sweep_id
+      where s.valve_id = v.id and f.refusal is null
+      union all
+      select coalesce(q.ended_at, q.created_at), q.id, 'quick-test', q.grade_percent,
+        case when q.grade in (${hardFails}) then q.grade end
+      from quick_tests q
+      where q.valve_id = v.id and q.status = 'complete' and q.grade is not null
+        and q.grade != 'incomplete'
+    ) m
+    order by m.at desc, m.source desc, m.k desc
+    limit 1)`;
 }
 
 /** Filter, sort and page of the valve list (sort columns are SQL names). */

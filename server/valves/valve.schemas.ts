@@ -1,6 +1,8 @@
 import { z } from 'zod';
+import { HARD_FAILS } from '../../shared/grading/grade-quick-test';
 import { VALVE_GRADES } from '../../shared/grading/grade-thresholds';
 import { pageFields, pageOf } from '../http/common-schemas';
+import { quickTestSummarySchema } from '../quick-tests/quick-test.schemas';
 import { sweepViewSchema } from '../sweeps/sweep.schemas';
 import { ORIGIN_KINDS, VALVE_STATUSES } from './valve-status';
 
@@ -54,8 +56,11 @@ export const VALVE_SORT_KEYS = [
   'grade',
 ] as const;
 
+/** A record's grade: a quality grade by % of nominal, or a quick test's hard fail. */
+export const RECORD_GRADES = [...VALVE_GRADES, ...HARD_FAILS] as const;
+
 /** Grades a valve list can be filtered by; 'ungraded' has no figures yet. */
-export const GRADE_FILTERS = [...VALVE_GRADES, 'ungraded'] as const;
+export const GRADE_FILTERS = [...RECORD_GRADES, 'ungraded'] as const;
 
 /** Query of GET /api/valves. */
 export const valveListQuery = z.object({
@@ -84,11 +89,16 @@ export const valveViewSchema = z.object({
   location: z.string().nullable(),
   status: z.enum(VALVE_STATUSES),
   notes: z.string().nullable(),
-  grade: z.enum(VALVE_GRADES).nullable().describe('From the newest sweep with figures'),
+  grade: z
+    .enum(RECORD_GRADES)
+    .nullable()
+    .describe('From the newest sweep with figures or completed quick test'),
   percentOfNominal: z
     .number()
     .nullable()
-    .describe('Lower of gm and Ia as % of nominal at the reference point, newest sweep'),
+    .describe('gm (Ia where gm is unknown) as % of nominal at the reference point'),
+  gradeSource: z.enum(['sweep', 'quick-test']).nullable().describe('What the grade is from'),
+  gradedAt: z.string().nullable().describe('When that sweep or quick test was taken'),
   sweepCount: z.number().int(),
   lastSweepAt: z.string().nullable(),
   createdBy: z.string().nullable(),
@@ -125,6 +135,7 @@ export const valveDetailSchema = valveViewSchema.extend({
     .describe("The type's reference operating point the figures are taken at"),
   sweeps: z.array(sweepViewSchema).describe('Newest first'),
   trend: z.array(sweepFiguresSchema).describe('Oldest first, one entry a sweep'),
+  quickTests: z.array(quickTestSummarySchema).describe('Newest first, at most 200'),
 });
 
 /** Answer of GET /api/valves. */

@@ -3,6 +3,8 @@ import type { AuditService } from '../audit/audit.service';
 import type { AuthUser } from '../auth/auth-user';
 import type { HubDb } from '../db/database';
 import { HttpError, notFound } from '../http/http-error';
+import { listQuickTests } from '../quick-tests/quick-test.repository';
+import { toQuickTestSummary } from '../quick-tests/quick-test-view';
 import { allocateLabel, readSettings } from '../settings/settings.service';
 import { toSweepView } from '../sweeps/sweep-view';
 import { listSweepsOfValve, relabelSweepsOfValve } from '../sweeps/sweep.repository';
@@ -145,6 +147,9 @@ export function createValveService({ db, audit, photoFiles }: ValveServiceProps)
         },
         sweeps: sweeps.map(toSweepView),
         trend,
+        quickTests: (
+          await listQuickTests(db, { valveId: id, descending: true, limit: 200, offset: 0 })
+        ).rows.map(toQuickTestSummary),
       };
     },
 

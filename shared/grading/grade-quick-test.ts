@@ -34,6 +34,11 @@ export interface QuickTestGrade {
   reason: string;
   /** Every finding: hard fails first (worst first), then the graded figures, then the rest. */
   findings: GradeFinding[];
+  /**
+   * The lowest graded figure (gm or emission) as % of nominal, also under a hard fail; null
+   * when neither was read. Absent on grades stored before it was kept.
+   */
+  percent?: number | null;
 }
 
 const PERCENT = (x: number) => `${formatFigure(x, 3)} %`;
@@ -190,17 +195,23 @@ export function gradeQuickTest(
   fails.sort((a, b) => rank(a.verdict) - rank(b.verdict));
   graded.sort((a, b) => a.percent - b.percent);
   const findings = [...fails, ...graded.map(({ percent: _p, ...f }) => f), ...rest];
+  const percent = graded.length > 0 ? graded[0].percent : null;
   if (fails.length > 0) {
-    return { grade: fails[0].verdict as HardFail, reason: fails[0].message, findings };
+    return { grade: fails[0].verdict as HardFail, reason: fails[0].message, findings, percent };
   }
   if (graded.length > 0) {
-    return { grade: graded[0].verdict as ValveGrade, reason: graded[0].message, findings };
+    return { grade: graded[0].verdict as ValveGrade, reason: graded[0].message, findings, percent };
   }
   const failed = parts.filter((p) => p.status === 'failed' || p.status === 'skipped');
   const why = failed.length
     ? failed.map((p) => `${p.part}: ${p.message ?? p.status}`).join('; ')
     : 'neither gm nor emission was measured';
-  return { grade: 'incomplete', reason: `no gm or emission reading (${why})`, findings };
+  return {
+    grade: 'incomplete',
+    reason: `no gm or emission reading (${why})`,
+    findings,
+    percent: null,
+  };
 }
 
 function rank(verdict: GradeFinding['verdict']): number {

@@ -55,6 +55,30 @@ describe('database migrations', () => {
     expect(again.results).toEqual([]);
   });
 
+  it("fills a graded quick test's percentage from its stored part results", async () => {
+    await migrateToLatest(db, '2026-12-05-match-sets');
+    const results = [
+      { part: 'gm', status: 'done', result: { part: 'gm', gmPercent: 72.5, iaPercent: 88 } },
+      { part: 'emission', status: 'done', result: { part: 'emission', percent: 91 } },
+      { part: 'leakage', status: 'done', result: { part: 'leakage', pairs: [] } },
+    ];
+    await sql`pragma foreign_keys = off`.execute(db);
+    for (const [status, json] of [
+      ['complete', JSON.stringify(results)],
+      ['complete', JSON.stringify(results.slice(2))],
+      ['aborted', JSON.stringify(results)],
+    ]) {
+      await sql`insert into quick_tests (bench_id, valve_type, parts_json, plan_json,
+        results_json, thresholds_json, operator_id, status, created_at)
+        values (1, '12AX7', '[]', '{}', ${json}, '{}', 1, ${status}, '2026-12-01')`.execute(db);
+    }
+    await migrateToLatest(db);
+    const rows = await sql<{ grade_percent: number | null }>`
+      select grade_percent from quick_tests order by id`.execute(db);
+    // The lower of gm and emission; none without either; none for a test that did not complete.
+    expect(rows.rows.map((r) => r.grade_percent)).toEqual([72.5, null, null]);
+  });
+
   it('opens the file in WAL mode with foreign keys on and full fsync', async () => {
     const mode = await sql<{ journal_mode: string }>`pragma journal_mode`.execute(db);
     const fk = await sql<{ foreign_keys: number }>`pragma foreign_keys`.execute(db);

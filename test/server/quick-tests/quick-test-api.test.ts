@@ -400,6 +400,64 @@ describe('quick tests on the hub', () => {
     expect(page.body.items[0].grade.grade).toBe('strong');
   });
 
+  it("grades the record by its newest quick test: gm's percentage, then a hard fail", async () => {
+    const bridge = await benchWithExtensions(hub);
+    open.push(bridge);
+    const tech = await hub.token('tech');
+    const valve = await hub.api
+      .post('/api/valves')
+      .set('authorization', `Bearer ${tech}`)
+      .send({ type: '12AX7', label: 'QT-VALVE-2' })
+      .expect(201);
+    const detail = async () =>
+      (
+        await hub.api
+          .get(`/api/valves/${valve.body.id}`)
+          .set('authorization', `Bearer ${await hub.token('viewer')}`)
+          .expect(200)
+      ).body;
+    expect((await detail()).grade).toBeNull();
+
+    // gm 1200 of the data sheet's 1600 uS: 75 %, fair between the common-practice 65 % and 80 %.
+    const first = await post(hub, {
+      benchId: bridge.benchId,
+      valveType: '12AX7',
+      valveId: valve.body.id,
+      parts: ['gm'],
+    });
+    await runBench(hub, bridge, first.body.id, { gm: 1200 });
+    const fair = await detail();
+    expect(fair).toMatchObject({ grade: 'fair', gradeSource: 'quick-test' });
+    expect(fair.percentOfNominal).toBeCloseTo(75, 0);
+    expect(fair.quickTests).toHaveLength(1);
+    expect(fair.quickTests[0]).toMatchObject({
+      id: first.body.id,
+      status: 'complete',
+      grade: 'fair',
+    });
+    expect(fair.quickTests[0].gmMicrosiemens).toBeCloseTo(1200, -1);
+    expect(fair.quickTests[0].reason).toMatch(/^gm 75(\.\d)? % of nominal/);
+
+    // A later short decides, whatever the gm was.
+    const second = await post(hub, {
+      benchId: bridge.benchId,
+      valveType: '12AX7',
+      valveId: valve.body.id,
+    });
+    await runBench(hub, bridge, second.body.id, { akMicroamps: 1000 });
+    const shorted = await detail();
+    expect(shorted.grade).toBe('short');
+    expect(shorted.quickTests.map((q: { id: number }) => q.id)).toEqual([
+      second.body.id,
+      first.body.id,
+    ]);
+    const list = await hub.api
+      .get('/api/valves?grade=short')
+      .set('authorization', `Bearer ${tech}`)
+      .expect(200);
+    expect(list.body.items.map((v: { label: string }) => v.label)).toEqual(['QT-VALVE-2']);
+  });
+
   it('aborts over REST (technician), answers 409 once ended, and audits both', async () => {
     const bridge = await benchWithExtensions(hub);
     open.push(bridge);
