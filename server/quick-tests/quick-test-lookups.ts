@@ -10,7 +10,7 @@ import type { QuickTestServiceProps } from './quick-test.service';
 /**
  * The quick-test service's look-ups in the hub's database: types and their ratings from the
  * type library (so an admin's edit of a rating applies to quick tests as to sweeps), valve
- * records, and the workshop's grade thresholds over the quick-test defaults.
+ * records, and the workshop's grade thresholds and hard-fail limits over the defaults.
  */
 export function quickTestLookups(
   db: HubDb,
@@ -32,7 +32,11 @@ export function quickTestLookups(
     },
     async thresholds() {
       const settings = await readSettings(db);
-      return { ...DEFAULT_QUICK_TEST_THRESHOLDS, ...settings.gradeThresholds };
+      return {
+        ...DEFAULT_QUICK_TEST_THRESHOLDS,
+        ...settings.quickTestLimits,
+        ...settings.gradeThresholds,
+      };
     },
   };
 }

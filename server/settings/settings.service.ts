@@ -1,5 +1,6 @@
 import type { z } from 'zod';
 import { DEFAULT_GRADE_THRESHOLDS } from '../../shared/grading/grade-thresholds';
+import { DEFAULT_QUICK_TEST_THRESHOLDS } from '../../shared/grading/quick-test-thresholds';
 import type { AuditService } from '../audit/audit.service';
 import type { AuthUser } from '../auth/auth-user';
 import type { HubDb } from '../db/database';
@@ -17,6 +18,13 @@ export const DEFAULT_SETTINGS: WorkshopSettings = {
   labelDigits: 4,
   nextLabelNumber: 1,
   gradeThresholds: DEFAULT_GRADE_THRESHOLDS,
+  quickTestLimits: {
+    reducedHeaterMaxDropPercent: DEFAULT_QUICK_TEST_THRESHOLDS.reducedHeaterMaxDropPercent,
+    gasMaxMicroamps: DEFAULT_QUICK_TEST_THRESHOLDS.gasMaxMicroamps,
+    leakageMaxMicroamps: DEFAULT_QUICK_TEST_THRESHOLDS.leakageMaxMicroamps,
+    electrodeLeakageMaxMicroamps: DEFAULT_QUICK_TEST_THRESHOLDS.electrodeLeakageMaxMicroamps,
+    shortMinMicroamps: DEFAULT_QUICK_TEST_THRESHOLDS.shortMinMicroamps,
+  },
 };
 
 /** The settings in force: stored values over the defaults (a bad stored value is ignored). */
@@ -52,7 +60,7 @@ export async function allocateLabel(
   return label;
 }
 
-/** Workshop settings: label scheme and grade thresholds. */
+/** Workshop settings: label scheme, grade thresholds and quick-test limits. */
 export type SettingsService = ReturnType<typeof createSettingsService>;
 
 /** Builds the settings service. */
@@ -68,12 +76,20 @@ export function createSettingsService({ db, audit }: { db: HubDb; audit: AuditSe
     ): Promise<WorkshopSettings> {
       const before = await readSettings(db);
       const given = Object.fromEntries(Object.entries(body).filter(([, v]) => v !== undefined));
-      const merged = { ...before, ...given };
+      const merged = {
+        ...before,
+        ...given,
+        quickTestLimits: { ...before.quickTestLimits, ...body.quickTestLimits },
+      };
       const checked = workshopSettingsSchema.safeParse(merged);
       if (!checked.success) {
         throw new HttpError(400, 'validation_failed', checked.error.issues[0].message);
       }
-      await writeSettingValues(db, given, user.id);
+      // Stored whole (a partial quickTestLimits is merged first), so a read sees it complete.
+      const written = Object.fromEntries(
+        Object.keys(given).map((k) => [k, merged[k as keyof WorkshopSettings]]),
+      );
+      await writeSettingValues(db, written, user.id);
       const changes = Object.fromEntries(
         Object.keys(given).map((k) => [
           k,

@@ -458,6 +458,38 @@ describe('quick tests on the hub', () => {
     expect(list.body.items.map((v: { label: string }) => v.label)).toEqual(['QT-VALVE-2']);
   });
 
+  it("judges gas by the workshop's limit in force when the test starts", async () => {
+    const bridge = await benchWithExtensions(hub);
+    open.push(bridge);
+    const admin = await hub.token('admin');
+    const gasOf = async () => {
+      const { body } = await post(hub, {
+        benchId: bridge.benchId,
+        valveType: '12AX7',
+        parts: ['grid-current'],
+      });
+      return (await runBench(hub, bridge, body.id, { ig1: -0.5 })).grade;
+    };
+    // 0.5 uA reverse grid current: gassy by the default 0.2 uA limit.
+    expect((await gasOf())?.grade).toBe('gassy');
+    await hub.api
+      .put('/api/settings')
+      .set('authorization', `Bearer ${admin}`)
+      .send({ quickTestLimits: { gasMaxMicroamps: 1 } })
+      .expect(200);
+    try {
+      const grade = await gasOf();
+      expect(grade?.grade).not.toBe('gassy');
+      expect(grade?.findings.find((f) => f.criterion === 'gas')?.verdict).toBe('pass');
+    } finally {
+      await hub.api
+        .put('/api/settings')
+        .set('authorization', `Bearer ${admin}`)
+        .send({ quickTestLimits: { gasMaxMicroamps: 0.2 } })
+        .expect(200);
+    }
+  });
+
   it('aborts over REST (technician), answers 409 once ended, and audits both', async () => {
     const bridge = await benchWithExtensions(hub);
     open.push(bridge);

@@ -29,6 +29,13 @@ describe('workshop settings', () => {
       labelDigits: 4,
       nextLabelNumber: 1,
       gradeThresholds: DEFAULT_GRADE_THRESHOLDS,
+      quickTestLimits: {
+        reducedHeaterMaxDropPercent: 10,
+        gasMaxMicroamps: 0.2,
+        leakageMaxMicroamps: 10,
+        electrodeLeakageMaxMicroamps: 2,
+        shortMinMicroamps: 100,
+      },
     });
     // Common practice (no single source): below about 60-70 % of nominal a valve is replaced.
     expect(DEFAULT_GRADE_THRESHOLDS.fairMinPercent).toBeGreaterThanOrEqual(60);
@@ -59,5 +66,24 @@ describe('workshop settings', () => {
     await put({ colour: 'red' }).expect(400);
     await put({}).expect(400);
     await put({ labelPrefix: 'has space' }).expect(400);
+    const neg = await put({ quickTestLimits: { gasMaxMicroamps: -1 } }).expect(400);
+    expect(neg.body.error.fields).toHaveProperty(['quickTestLimits.gasMaxMicroamps']);
+    const order = await put({ quickTestLimits: { shortMinMicroamps: 5 } }).expect(400);
+    expect(order.body.error.message).toMatch(/shortMinMicroamps must be above/);
+  });
+
+  it('changes one quick-test limit and keeps the others, audited', async () => {
+    const res = await put({ quickTestLimits: { gasMaxMicroamps: 1.5 } }).expect(200);
+    expect(res.body.quickTestLimits).toMatchObject({
+      gasMaxMicroamps: 1.5,
+      leakageMaxMicroamps: 10,
+    });
+    const again = await hub.api.get('/api/settings').set('authorization', `Bearer ${admin}`);
+    expect(again.body.quickTestLimits).toEqual(res.body.quickTestLimits);
+    const audit = await hub.api
+      .get('/api/audit?action=settings.update&pageSize=1')
+      .set('authorization', `Bearer ${admin}`);
+    expect(audit.body.items[0].detail.changes.quickTestLimits.from.gasMaxMicroamps).toBe(0.2);
+    expect(audit.body.items[0].detail.changes.quickTestLimits.to.gasMaxMicroamps).toBe(1.5);
   });
 });
