@@ -1,5 +1,5 @@
 import type { Routes } from '@angular/router';
-import { authGuard } from './core/auth-guard';
+import { adminGuard, authGuard } from './core/auth-guard';
 import { MATCHING_ROUTES } from './matching/matching-routes';
 import { REPORT_BARE_ROUTES, REPORT_SHELL_ROUTES } from './reports/report-routes';
 
@@ -56,6 +56,13 @@ export const appRoutes: Routes = [
         path: 'types/:designation',
         title: 'Type · Emberline',
         loadComponent: () => import('./types/type-detail').then((m) => m.TypeDetail),
+      },
+      {
+        path: 'settings',
+        title: 'Settings · Emberline',
+        canActivate: [adminGuard],
+        loadComponent: () =>
+          import('./settings/workshop-settings').then((m) => m.WorkshopSettings),
       },
       ...MATCHING_ROUTES,
       ...REPORT_SHELL_ROUTES,

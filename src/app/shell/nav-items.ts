@@ -18,4 +18,5 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { path: '/valves', label: 'Valves', icon: 'inventory_2', roles: EVERYONE },
   { path: '/box-check', label: 'Box check', icon: 'check_circle', roles: ['admin', 'technician'] },
   { path: '/types', label: 'Types', icon: 'category', roles: EVERYONE },
+  { path: '/settings', label: 'Settings', icon: 'settings', roles: ['admin'] },
 ];
