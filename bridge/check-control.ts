@@ -12,29 +12,20 @@ import {
 } from '../shared/protocol/check-plan';
 import { num, type DeviceErrorCode, type DeviceMessage } from '../shared/protocol/messages';
 import type { DeviceLink } from './device-link';
+import { armTimer, disarm, endWentMissing, holdEnd, newRun, type TracerRun } from './tracer-run';
 
 type End = Extract<DeviceMessage, { type: 'end' }>;
 type Heartbeat = Extract<DeviceMessage, { type: 'heartbeat' }>;
 
-/**
- * Where the check stands. start: command sent, waiting for its ACK; running: accepted;
- * aborting: ABT sent; ending: the tracer ended it with a trip or fault, its ERR may follow.
- */
-type Phase = 'start' | 'running' | 'aborting' | 'ending';
-
-interface ActiveCheck {
+/** The check the bridge looks after (TracerRun has its phase, timer and held END). */
+interface ActiveCheck extends TracerRun {
   checkId: number;
   check: CheckPlan;
-  phase: Phase;
   readings: CheckReading[];
   /** Next seq expected of a transfer check's points. */
   nextSeq: number;
   /** Last ERR the tracer reported during the check. */
   lastError: { code: DeviceErrorCode; text: string } | null;
-  idleBeats: number;
-  abortRequested: boolean;
-  heldEnd: End | null;
-  timer: NodeJS.Timeout | null;
 }
 
 /** What CheckControl works with. */
@@ -49,9 +40,6 @@ export interface CheckControlDeps {
   /** Wait for the tracer to answer a check command or ABT, ms. */
   commandTimeoutMs: number;
 }
-
-/** How long an END of a trip or fault waits for the ERR that explains it, ms. */
-const ERROR_AFTER_END_MS = 300;
 
 /**
  * Runs checks (the steps of a quick test) for the hub, with the sweep rules where they apply:
@@ -162,7 +150,7 @@ export class CheckControl {
   onHubLost(): void {
     const a = this.active;
     if (!a) return;
-    this.disarm(a);
+    disarm(a);
     this.active = null;
     this.deps.device.send({ type: 'off' });
     this.deps.log(`check ${a.checkId}: dropped, the hub connection was lost; outputs off`);
@@ -207,18 +195,7 @@ export class CheckControl {
       this.refuse(checkId, `outside the tracer's limits, not sent: ${problems.join('; ')}`);
       return;
     }
-    this.active = {
-      checkId,
-      check,
-      phase: 'start',
-      readings: [],
-      nextSeq: 0,
-      lastError: null,
-      idleBeats: 0,
-      abortRequested: false,
-      heldEnd: null,
-      timer: null,
-    };
+    this.active = { ...newRun('start'), checkId, check, readings: [], nextSeq: 0, lastError: null };
     this.deps.log(`check ${checkId}: starting ${check.kind} on the tracer`);
     device.send(checkCommand(checkId, check));
     this.arm('the tracer did not answer the check command');
@@ -226,20 +203,14 @@ export class CheckControl {
 
   private arm(what: string): void {
     const a = this.active!;
-    this.disarm(a);
     const ms = this.deps.commandTimeoutMs;
-    a.timer = setTimeout(() => {
+    armTimer(a, ms, () => {
       if (this.active !== a) return;
       this.deps.device.send({ type: 'off' });
       if (a.phase === 'aborting') {
         this.end('aborted', `${what} within ${ms} ms; the bridge switched the outputs off`);
       } else this.refuse(a.checkId, `${what} within ${ms} ms; outputs switched off`);
-    }, ms);
-  }
-
-  private disarm(a: ActiveCheck): void {
-    if (a.timer) clearTimeout(a.timer);
-    a.timer = null;
+    });
   }
 
   private onAck(command: string, id: number | undefined): void {
@@ -261,7 +232,7 @@ export class CheckControl {
   }
 
   private accepted(a: ActiveCheck): void {
-    this.disarm(a);
+    disarm(a);
     a.phase = 'running';
     this.deps.sendToHub({ type: 'check-started', checkId: a.checkId });
     this.deps.log(`check ${a.checkId}: started`);
@@ -270,9 +241,7 @@ export class CheckControl {
 
   private onHeartbeat(m: Heartbeat): void {
     const a = this.active;
-    if (!a || (a.phase !== 'running' && a.phase !== 'aborting')) return;
-    a.idleBeats = m.state === 'idle' || m.state === 'fault' ? a.idleBeats + 1 : 0;
-    if (a.idleBeats >= 2) {
+    if (a && endWentMissing(a, m)) {
       this.deps.device.send({ type: 'off' });
       this.end(
         'fault',
@@ -336,16 +305,10 @@ export class CheckControl {
     const a = this.active;
     if (!a || a.checkId !== m.sweepId || a.phase === 'ending') return;
     if (a.phase === 'start') this.accepted(a);
-    a.heldEnd = m;
-    if (m.reason === 'complete' || m.reason === 'aborted' || a.lastError) {
-      this.settle();
-      return;
-    }
-    this.disarm(a);
-    a.phase = 'ending';
-    a.timer = setTimeout(() => {
+    const settleNow = holdEnd(a, m, a.lastError !== null, () => {
       if (this.active === a) this.settle();
-    }, ERROR_AFTER_END_MS);
+    });
+    if (settleNow) this.settle();
   }
 
   /** Ends the check as the tracer reported, once its END is in. */
@@ -392,7 +355,7 @@ export class CheckControl {
   private refuse(checkId: number, message: string): void {
     const a = this.active;
     if (a && a.checkId === checkId) {
-      this.disarm(a);
+      disarm(a);
       this.active = null;
     }
     this.deps.log(`check ${checkId}: refused: ${message}`);
@@ -403,7 +366,7 @@ export class CheckControl {
   private end(reason: SweepEndReason, message: string): void {
     const a = this.active;
     if (!a) return;
-    this.disarm(a);
+    disarm(a);
     this.active = null;
     this.deps.log(`check ${a.checkId}: ended ${reason}: ${message}`);
     this.deps.sendToHub({

@@ -10,35 +10,31 @@ import { num, type DeviceMessage } from '../shared/protocol/messages';
 import type { DeviceLink } from './device-link';
 import type { Journal } from './journal';
 import type { PointSender } from './point-sender';
+import {
+  armTimer,
+  disarm,
+  endWentMissing,
+  holdEnd,
+  newRun,
+  pointRange,
+  points,
+  type TracerRun,
+} from './tracer-run';
 
 type Heartbeat = Extract<DeviceMessage, { type: 'heartbeat' }>;
 type Point = Extract<DeviceMessage, { type: 'point' }>;
 type End = Extract<DeviceMessage, { type: 'end' }>;
 
-/**
- * Where the sweep the bridge looks after stands. heater: HTR sent, waiting for its ACK;
- * start: SWP sent, waiting for its ACK; running: accepted by the tracer; aborting: ABT sent;
- * ending: the tracer ended it with a trip or fault, and the ERR explaining why may follow.
- */
-type Phase = 'heater' | 'start' | 'running' | 'aborting' | 'ending';
-
-interface ActiveSweep {
+/** The sweep the bridge looks after (TracerRun has its phase, timer and held END). */
+interface ActiveSweep extends TracerRun {
   sweepId: number;
   plan: SweepPlan;
-  phase: Phase;
   /** Next seq expected from the tracer; also the number of points journaled. */
   nextSeq: number;
   /** Whether the bridge changed the heater for this sweep. */
   heaterChanged: boolean;
   /** Last ERR the tracer reported during the sweep, for the end message. */
   lastError: string | null;
-  /** Heartbeats saying idle or fault while the sweep should run (an END line went missing). */
-  idleBeats: number;
-  /** Whether ABT was sent on request. */
-  abortRequested: boolean;
-  /** The tracer's END, held while phase is 'ending'. */
-  heldEnd: End | null;
-  timer: NodeJS.Timeout | null;
 }
 
 /** What SweepControl works with. */
@@ -53,9 +49,6 @@ export interface SweepControlDeps {
   /** Check (quick-test step) the bench is running, or null: a sweep then waits its turn. */
   activeCheckId?: () => number | null;
 }
-
-/** How long an END of a trip or fault waits for the ERR that explains it, ms. */
-const ERROR_AFTER_END_MS = 300;
 
 /** Heater voltages closer than this count as already set, V. */
 const HEATER_TOLERANCE_VOLTS = 0.05;
@@ -260,16 +253,12 @@ export class SweepControl {
       this.lastBeat !== null &&
       Math.abs(this.lastBeat.heaterVolts - plan.heaterVolts) <= HEATER_TOLERANCE_VOLTS;
     this.active = {
+      ...newRun('heater'),
       sweepId,
       plan,
-      phase: 'heater',
       nextSeq: 0,
       heaterChanged: !heaterSet,
       lastError: null,
-      idleBeats: 0,
-      abortRequested: false,
-      heldEnd: null,
-      timer: null,
     };
     this.deps.log(`sweep ${sweepId}: starting on the tracer`);
     if (heaterSet) this.sendSweep();
@@ -289,9 +278,8 @@ export class SweepControl {
   /** Refuses the starting sweep with this text if the tracer stays silent. */
   private arm(what: string): void {
     const a = this.active!;
-    this.disarm(a);
     const ms = this.deps.commandTimeoutMs;
-    a.timer = setTimeout(() => {
+    armTimer(a, ms, () => {
       if (this.active !== a) return;
       if (a.phase === 'aborting') {
         this.deps.device.send({ type: 'off' });
@@ -299,12 +287,7 @@ export class SweepControl {
       } else {
         this.refuse(a.sweepId, `${what} within ${ms} ms; outputs switched off`, true);
       }
-    }, ms);
-  }
-
-  private disarm(a: ActiveSweep): void {
-    if (a.timer) clearTimeout(a.timer);
-    a.timer = null;
+    });
   }
 
   private onAck(command: string, sweepId: number | undefined): void {
@@ -329,7 +312,7 @@ export class SweepControl {
   }
 
   private accepted(a: ActiveSweep): void {
-    this.disarm(a);
+    disarm(a);
     a.phase = 'running';
     this.deps.journal.begin(a.sweepId);
     this.deps.sendToHub({ type: 'sweep-started', sweepId: a.sweepId });
@@ -340,18 +323,14 @@ export class SweepControl {
   private onHeartbeat(m: Heartbeat): void {
     this.lastBeat = m;
     const a = this.active;
-    if (a && (a.phase === 'running' || a.phase === 'aborting')) {
-      a.idleBeats = m.state === 'idle' || m.state === 'fault' ? a.idleBeats + 1 : 0;
-      // Two in a row: one heartbeat may have been queued just before the sweep began.
-      if (a.idleBeats >= 2) {
-        this.deps.device.send({ type: 'off' });
-        this.end(
-          'fault',
-          `the tracer went ${m.state} after ${points(a.nextSeq)} without an end of sweep ` +
-            '(a line lost on the serial link); outputs switched off',
-        );
-        return;
-      }
+    if (a && endWentMissing(a, m)) {
+      this.deps.device.send({ type: 'off' });
+      this.end(
+        'fault',
+        `the tracer went ${m.state} after ${points(a.nextSeq)} without an end of sweep ` +
+          '(a line lost on the serial link); outputs switched off',
+      );
+      return;
     }
     this.sendStatus();
   }
@@ -372,7 +351,7 @@ export class SweepControl {
       this.deps.device.send({ type: 'off' });
       this.end(
         'fault',
-        `lost ${range(a.nextSeq, m.seq - 1)} on the serial link (a corrupted line from the ` +
+        `lost ${pointRange(a.nextSeq, m.seq - 1)} on the serial link (a corrupted line from the ` +
           `tracer); the bridge stopped the sweep and switched the outputs off; ` +
           `${points(a.nextSeq)} kept`,
       );
@@ -409,17 +388,10 @@ export class SweepControl {
       return;
     }
     if (a.phase === 'start') this.accepted(a);
-    a.heldEnd = m;
-    if (m.reason === 'complete' || m.reason === 'aborted' || a.lastError) {
-      this.settle();
-      return;
-    }
-    // Tracers may send the ERR that explains a trip or fault after the END: wait a moment.
-    this.disarm(a);
-    a.phase = 'ending';
-    a.timer = setTimeout(() => {
+    const settleNow = holdEnd(a, m, a.lastError !== null, () => {
       if (this.active === a) this.settle();
-    }, ERROR_AFTER_END_MS);
+    });
+    if (settleNow) this.settle();
   }
 
   /** Ends the sweep as the tracer reported, once the tracer has sent its END. */
@@ -432,7 +404,7 @@ export class SweepControl {
     if (m.count > a.nextSeq) {
       // The tail went missing on the line: the same policy as a gap.
       if (reason === 'complete') reason = 'fault';
-      message += `; lost ${range(a.nextSeq, m.count - 1)} on the serial link`;
+      message += `; lost ${pointRange(a.nextSeq, m.count - 1)} on the serial link`;
     } else if (m.count < a.nextSeq) {
       message += `; the tracer counted ${m.count} points, the bridge received ${a.nextSeq}`;
     }
@@ -476,7 +448,7 @@ export class SweepControl {
   private refuse(sweepId: number, message: string, outputsOff = false): void {
     const a = this.active;
     if (a && a.sweepId === sweepId) {
-      this.disarm(a);
+      disarm(a);
       this.active = null;
     }
     if (outputsOff) this.deps.device.send({ type: 'off' });
@@ -489,7 +461,7 @@ export class SweepControl {
   private end(reason: SweepEndReason, message: string): void {
     const a = this.active;
     if (!a) return;
-    this.disarm(a);
+    disarm(a);
     this.active = null;
     this.deps.journal.end(a.sweepId, { reason, count: a.nextSeq, message });
     this.deps.log(`sweep ${a.sweepId}: ended ${reason}: ${message}`);
@@ -526,12 +498,4 @@ function endMessage(m: End, a: ActiveSweep): string {
     case 'link-lost':
       return `the tracer's watchdog expired (no keep-alive from the bridge)${detail}; outputs off`;
   }
-}
-
-function points(n: number): string {
-  return n === 1 ? '1 point' : `${n} points`;
-}
-
-function range(first: number, last: number): string {
-  return first === last ? `point ${first}` : `points ${first} to ${last}`;
 }
