@@ -33,6 +33,7 @@ const ORIGINS = {
   swap: ['lot', 'Club swap table, spring meet'],
   customer: ['customer', 'Customer 0412, 18-watt practice amplifier'],
   console: ['customer', 'Customer 0388, radiogram restoration'],
+  octet: ['supplier', 'Marlowe Yard Clearance, boxed octet, invoice 3107'],
 } as const satisfies Record<string, readonly [OriginKind, string]>;
 
 const ROWS: Row[] = [
@@ -60,6 +61,15 @@ const ROWS: Row[] = [
   ['6L6GC', 'Lyndmoor', 'L7 1B', 'harrow', 'Shelf 2, box 6', 'in-stock'],
   ['6L6GC', 'Corrin & Hale', 'M4 3D', 'estate', 'Shelf 2, box 6', 'reserved'],
   ['6L6GC', 'Corrin & Hale', 'M4 3D', 'estate', 'Shelf 2, box 6', 'in-stock'],
+  // A boxed octet bought for matching: enough of one type for pairs and quads to choose from.
+  ['EL34', 'Aurel', 'N2 1B', 'octet', 'Shelf 3, box 1', 'in-stock'],
+  ['EL34', 'Aurel', 'N2 1B', 'octet', 'Shelf 3, box 1', 'in-stock'],
+  ['EL34', 'Aurel', 'N2 1B', 'octet', 'Shelf 3, box 1', 'in-stock'],
+  ['EL34', 'Aurel', 'N2 1B', 'octet', 'Shelf 3, box 1', 'in-stock'],
+  ['EL34', 'Aurel', 'N2 2B', 'octet', 'Shelf 3, box 1', 'in-stock'],
+  ['EL34', 'Aurel', 'N2 2B', 'octet', 'Shelf 3, box 1', 'in-stock'],
+  ['EL34', 'Aurel', 'N2 2B', 'octet', 'Shelf 3, box 1', 'in-stock'],
+  ['EL34', 'Aurel', 'N2 2B', 'octet', 'Shelf 3, box 1', 'in-stock'],
 ];
 
 function buildStock(): DemoValve[] {
@@ -84,5 +94,5 @@ function buildStock(): DemoValve[] {
   return valves;
 }
 
-/** The invented stock: 12AX7 x 8, EL34 x 8, 12AU7 x 4, 6L6GC x 4. */
+/** The invented stock: 12AX7 x 8, EL34 x 16, 12AU7 x 4, 6L6GC x 4. */
 export const DEMO_STOCK: readonly DemoValve[] = buildStock();

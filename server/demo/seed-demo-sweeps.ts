@@ -3,6 +3,7 @@ import { readingTrips } from '../../shared/domain/plan-check';
 import type { HubDb } from '../db/database';
 import { insertNewPoints, insertSweep } from '../sweeps/sweep.repository';
 import { refreshSweepFigures } from '../valves/refresh-sweep-figures';
+import { computeSweepFigures } from '../valves/sweep-figures';
 import { DEMO_BENCHES } from './demo-data';
 import { demoSweepPoints, type DemoSweep } from './demo-sweep-points';
 import { DEMO_STOCK } from './demo-stock';
@@ -50,15 +51,24 @@ const MAX_TRIES = 200;
 /*
  * A reading past the trip would have ended the run with 'limit' (some EL34s draw past the
  * default plan's trip current on the Vg1 = 0 curve): such an individual is passed over for the
- * next one, so each demo sweep is one a tracer could have completed.
+ * next one, so each demo sweep is one a tracer could have completed. Individuals whose curves
+ * next to the type's reference point stop at the plan's dissipation limit before reaching it
+ * (strong 12AU7s, EL34s and 6L6GCs: their reference points sit at or near the anode rating)
+ * leave a record without figures; the demo prefers the next individual that reaches the point,
+ * so that every demo valve has a grade, and keeps the first complete one where none does.
  */
 function completeSweep(index: number): DemoSweep | null {
   const [type, seedText] = demoSweepValveSpec(index).split('#');
+  const reference = findValveType(type)?.operatingPoints[0];
+  let fallback: DemoSweep | null = null;
   for (let k = 0; k < MAX_TRIES; k++) {
     const sweep = demoSweepPoints(`${type}#${Number(seedText) + k * SEED_STRIDE}`);
-    if (!sweep.points.some((p) => readingTrips(sweep.plan, p.vaVolts, p.iaMilliamps))) return sweep;
+    if (sweep.points.some((p) => readingTrips(sweep.plan, p.vaVolts, p.iaMilliamps))) continue;
+    if (!reference) return sweep;
+    if (computeSweepFigures(sweep.plan, sweep.points, reference).refusal === null) return sweep;
+    fallback ??= sweep;
   }
-  return null;
+  return fallback;
 }
 
 /**
