@@ -49,7 +49,7 @@ interface LinkRow {
           (click)="create()"
           [disabled]="days.invalid || busy()"
         >
-          <mat-icon svgIcon="add" />Make a buyer link
+          <mat-icon svgIcon="link" />Make a buyer link
         </button>
       </div>
     }
@@ -60,9 +60,9 @@ interface LinkRow {
           shown only this once.
         </p>
         <div class="url-row">
-          <code class="url" aria-label="Buyer link">{{ c.url }}</code>
+          <code class="url" aria-label="New buyer link">{{ c.url }}</code>
           <button mat-flat-button type="button" (click)="copy(c.url)">
-            {{ copied() ? 'Copied' : 'Copy link' }}
+            <mat-icon svgIcon="content_copy" />{{ copied() ? 'Copied' : 'Copy link' }}
           </button>
         </div>
       </div>
