@@ -20,8 +20,9 @@ export function splitReportNotes(notes: readonly string[]): {
 
 /** Where a set's tolerance comes from, in words a buyer can check. */
 export function toleranceNote(tolerancePercent: number): string {
-  const { tightPercent, usualPercent, loosePercent } = MATCH_TOLERANCES;
-  const range = `${usualPercent} % usual, about ${tightPercent} % tight, ${loosePercent} % loose`;
+  const { usualPercent, loosePercent } = MATCH_TOLERANCES;
+  // The trade quotes tight matching as a range, not as MATCH_TOLERANCES' single middle value.
+  const range = `${usualPercent} % usual, 2-3 % tight, ${loosePercent} % loose`;
   return tolerancePercent === DEFAULT_TOLERANCE_PERCENT
     ? `Tolerance ${tolerancePercent} %: the usual target in common practice (${range}); ` +
         'not a published standard.'

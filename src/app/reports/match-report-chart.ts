@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import type { ECharts } from 'echarts/core';
 import { NgxEchartsDirective } from 'ngx-echarts';
 import { REPORT_CHART_SIZE, reportChartOption } from './report-chart-option';
 import type { ReportMember } from './reports-api';
@@ -18,6 +19,7 @@ import type { ReportMember } from './reports-api';
       [options]="option()"
       [initOpts]="initOpts"
       [autoResize]="false"
+      (chartInit)="chartReady($event)"
       role="img"
       [attr.aria-label]="ariaLabel()"
     ></div>
@@ -52,4 +54,15 @@ export class MatchReportChart {
         .map((m) => m.label)
         .join(', ')}`,
   );
+
+  protected chartReady(chart: ECharts): void {
+    // ECharts' live SVG has a fixed width and height but no viewBox: without one, CSS can only
+    // crop the drawing, not scale it to a narrow screen.
+    const fit = () => {
+      const svg = chart.isDisposed() ? null : chart.getDom().querySelector('svg');
+      svg?.setAttribute('viewBox', `0 0 ${REPORT_CHART_SIZE.width} ${REPORT_CHART_SIZE.height}`);
+    };
+    chart.on('finished', fit);
+    fit();
+  }
 }

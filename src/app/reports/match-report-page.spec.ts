@@ -39,7 +39,7 @@ describe('MatchReportPage', () => {
   it('shows the report with a way back to its set, and prints it', async () => {
     http.expectOne('/api/match-sets/7/report').flush(matchReportFixture());
     await fixture.whenStable();
-    expect(el.querySelector('h1')!.textContent).toBe('Match report MS-0007');
+    expect(el.querySelector('h1')!.textContent!.trim()).toBe('Match report MS-0007');
     expect(button('Back to the set').getAttribute('href')).toBe('/match-sets/7');
     const print = vi.spyOn(window, 'print').mockImplementation(() => {});
     button('Print').click();

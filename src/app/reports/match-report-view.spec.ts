@@ -34,6 +34,40 @@ describe('reportSeries', () => {
     expect(series[2].endLabel).toBeUndefined();
   });
 
+  it('labels only one of two curves that end in the same place, the more negative grid', () => {
+    const [first, second] = matchReportFixture().members;
+    const crowded = {
+      ...first,
+      curves: [
+        {
+          vg1Volts: 0,
+          points: [
+            [0, 0],
+            [30, 160],
+          ] as [number, number][],
+        },
+        {
+          vg1Volts: -2.5,
+          points: [
+            [0, 0],
+            [34, 158],
+          ] as [number, number][],
+        },
+        {
+          vg1Volts: -20,
+          points: [
+            [0, 0],
+            [300, 20],
+          ] as [number, number][],
+        },
+      ],
+    };
+    const labels = reportSeries([crowded, second])
+      .filter((s) => s.endLabel)
+      .map((s) => s.endLabel!['formatter']);
+    expect(labels).toEqual(['-2.5 V', '-20 V']);
+  });
+
   it('gives both axes their units and one legend entry per member, without animation', () => {
     const option = reportChartOption(matchReportFixture().members);
     expect((option['xAxis'] as { name: string }).name).toBe('Va (V)');
@@ -71,7 +105,7 @@ describe('MatchReportView', () => {
 
   it('heads the report with the workshop, set code, type, date and status', async () => {
     const el = await render(matchReportFixture());
-    expect(el.querySelector('h1')!.textContent).toBe('Match report MS-0007');
+    expect(el.querySelector('h1')!.textContent!.trim()).toBe('Match report MS-0007');
     expect(el.querySelector('.workshop')!.textContent).toBe('Glowing Filament Workshop');
     expect(pairsOf(el.querySelector('.facts')!)).toEqual([
       'Type EL34',
@@ -115,7 +149,7 @@ describe('MatchReportView', () => {
 
   it('shows the spreads against the tolerance and names where the tolerance comes from', async () => {
     const el = await render(matchReportFixture());
-    expect(rowsOf(el, 'spreads')).toEqual([['typical', '101.2', '2.0', '11,150', '2.1', '-13.5']]);
+    expect(rowsOf(el, 'spreads')).toEqual([['typical', '101.2', '2.0', '11150', '2.1', '-13.5']]);
     expect(pairsOf(el.querySelector('.totals')!)).toEqual([
       'Curve spread 2.3 %',
       'Score 1.2 %',
@@ -149,6 +183,10 @@ describe('MatchReportView', () => {
         expect(series.map((s) => s.name)).toEqual(['EL34-003', 'EL34-003', 'EL34-008', 'EL34-008']);
       },
       { timeout: 5000 },
+    );
+    // Scales with its box instead of being cropped by it.
+    await vi.waitFor(() =>
+      expect(host.querySelector('svg')?.getAttribute('viewBox')).toBe('0 0 680 380'),
     );
     expect(host.getAttribute('aria-label')).toContain('EL34-003, EL34-008');
     expect(el.textContent).toContain('Ia against Va at Vg1 = 0, -10 V');

@@ -1,4 +1,4 @@
-import { DatePipe, DecimalPipe } from '@angular/common';
+import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatchReportChart } from './match-report-chart';
 import { memberStyle } from './member-styles';
@@ -29,7 +29,7 @@ interface MemberRow {
  */
 @Component({
   selector: 'app-match-report-view',
-  imports: [DatePipe, DecimalPipe, MatchReportChart],
+  imports: [DatePipe, MatchReportChart],
   templateUrl: './match-report-view.html',
   styleUrl: './match-report-view.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -49,7 +49,7 @@ describe('SharedReportPage', () => {
   it('shows the report, when the link expires and the PDF through the token', async () => {
     expect(el.textContent).toContain('Loading the report');
     await answer({ ...matchReportFixture(), expiresAt: '2026-12-03T14:00:00.000Z' });
-    expect(el.querySelector('h1')!.textContent).toBe('Match report MS-0007');
+    expect(el.querySelector('h1')!.textContent!.trim()).toBe('Match report MS-0007');
     expect(el.querySelectorAll('table.members tbody tr')).toHaveLength(2);
     expect(el.querySelector('.toolbar')!.textContent).toMatch(/works until\s+3 Dec 2026/);
     const pdf = [...el.querySelectorAll('a')].find((a) => a.textContent!.includes('Download PDF'))!;
@@ -71,7 +71,9 @@ describe('SharedReportPage', () => {
       410,
       'Gone',
     );
-    expect(el.querySelector('h1')!.textContent).toBe('This link has expired or was withdrawn');
+    expect(el.querySelector('h1')!.textContent!.trim()).toBe(
+      'This link has expired or was withdrawn',
+    );
     expect(el.textContent).toContain('Ask the workshop');
     expect(el.querySelector('app-match-report-view')).toBeNull();
     expect(navigate).not.toHaveBeenCalled();
@@ -79,13 +81,13 @@ describe('SharedReportPage', () => {
 
   it('says an unknown link (404) leads to no report', async () => {
     await answer({ error: { code: 'share_not_found', message: 'no such link' } }, 404, 'Not Found');
-    expect(el.querySelector('h1')!.textContent).toBe('No report at this link');
+    expect(el.querySelector('h1')!.textContent!.trim()).toBe('No report at this link');
     expect(el.textContent).toContain('whole address');
   });
 
   it('says when the hub cannot be reached at all', async () => {
     await answer({}, 0, 'Unknown Error');
-    expect(el.querySelector('h1')!.textContent).toBe('The report could not be loaded');
+    expect(el.querySelector('h1')!.textContent!.trim()).toBe('The report could not be loaded');
     expect(el.textContent).toContain('The hub cannot be reached');
   });
 });
