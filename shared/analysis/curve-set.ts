@@ -98,6 +98,23 @@ export class CurveSet {
     return this.curves.map((c) => c.sampleAt(x));
   }
 
+  /**
+   * section(x), with the curves of parameter up to `upToParam` that end short of x by at most
+   * `byAtMost` carried on to x (SmoothedCurve.extendedSampleAt), where a curve of lower
+   * parameter reaches x. In an anode family these are curves the sweep cut at its dissipation
+   * or current limit while the more negative ones went on; x beyond the whole family is never
+   * reached this way.
+   */
+  sectionExtendingCut(x: number, byAtMost: number, upToParam: number): (CurveSample | null)[] {
+    const samples = this.section(x);
+    let below = false;
+    for (let j = 0; j < samples.length && this.params[j] <= upToParam; j++) {
+      if (samples[j]) below = true;
+      else if (below) samples[j] = this.curves[j].extendedSampleAt(x, byAtMost);
+    }
+    return samples;
+  }
+
   /** The surface at parameter p from the curves sampled at one abscissa (see section). */
   surfaceAt(
     p: number,

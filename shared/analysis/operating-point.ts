@@ -37,7 +37,24 @@ export interface OperatingPoint {
   muFromGmRa: Estimate;
   /** Grid voltages of the curves that carried the result, V. */
   curvesVg1Volts: number[];
+  /**
+   * Largest distance a curve that carried the result was carried past its last reading to Va
+   * (a curve the sweep cut at its dissipation or current limit), V; 0 when none was.
+   */
+  extendedVolts: number;
 }
+
+/**
+ * How far past its end a cut curve may be carried to reach the asked Va, as a fraction of Va
+ * (see CurveSet.sectionExtendingCut). A data-sheet point at the anode rating (EL34 250 V /
+ * 100 mA = 25 W) lies on the dissipation limit the sweep's curves stop at, so the curve just
+ * above it ends short. On simulated noisy sweeps of 30 individuals a type, figures at the
+ * reference point were missing for 19 EL34s, 24 6L6GCs and 14 12AU7s without carrying cut curves
+ * on, and for 9, 8 and 0 with 15 %; the carried ones' gm came within 0.9-1.4 % (median) and
+ * 4.6 % (worst) of the law. With the noisier readings of the analysis tests (0.2 % of full
+ * scale) they lean high, by up to 6 % on an EL34, inside stated uncertainties of 4-9 %.
+ */
+export const CUT_CURVE_EXTENSION = 0.15;
 
 /** Analyses the family at (Va, Vg1). */
 export function operatingPointAt(
@@ -46,7 +63,15 @@ export function operatingPointAt(
   vg1Volts: number,
 ): OperatingPoint | Refusal {
   const set = family.set;
-  const found = set.surfaceAt(vg1Volts, set.section(vaVolts));
+  let found = set.surfaceAt(vg1Volts, set.section(vaVolts));
+  if (!found.ok && found.problem.kind === 'missing') {
+    // The curve just above Vg1, or the one below, stopped short of Va: carry the curves up to
+    // the first one above Vg1 on to Va, and only then (elsewhere the figures stay as measured).
+    const above = set.params.find((p) => p >= vg1Volts) ?? vg1Volts;
+    const extended = set.sectionExtendingCut(vaVolts, CUT_CURVE_EXTENSION * vaVolts, above);
+    const retry = set.surfaceAt(vg1Volts, extended);
+    if (retry.ok) found = retry;
+  }
   if (!found.ok) return refuse(family.describe(found.problem, vaVolts, vg1Volts));
   const pt = found.point;
   const where = `at Va ${formatNumber(vaVolts)} V, Vg1 ${formatNumber(vg1Volts)} V`;
@@ -81,6 +106,7 @@ export function operatingPointAt(
     muMethod: direct ? 'va-shift' : 'gm-ra',
     muFromGmRa: estimate(muGmRa, muGmRaUnc),
     curvesVg1Volts: pt.curves.map((j) => set.params[j]),
+    extendedVolts: Math.max(0, ...pt.curves.map((j) => vaVolts - set.curves[j].max)),
   };
 }
 

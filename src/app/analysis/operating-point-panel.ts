@@ -20,7 +20,7 @@ import {
   reasonSentence,
   type ReadoutText,
 } from './format-readout';
-import { muCheck, resolveMarker, type MarkerRequest } from './operating-point';
+import { extensionNote, muCheck, resolveMarker, type MarkerRequest } from './operating-point';
 
 /** One tile of the operating-point figures. */
 interface Figure extends ReadoutText {
@@ -106,6 +106,10 @@ export class OperatingPointPanel {
   protected readonly check = computed(() => {
     const op = this.result();
     return op?.ok ? muCheck(op) : null;
+  });
+  protected readonly extension = computed(() => {
+    const op = this.result();
+    return op?.ok ? extensionNote(op) : null;
   });
   protected readonly dissipation = computed(() => {
     const op = this.result();

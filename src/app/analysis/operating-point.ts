@@ -47,3 +47,17 @@ export function muCheck(op: OperatingPoint): MuCheck {
     Number.isFinite(sigma) && sigma > 0 ? `, ${(Math.abs(gap) / sigma).toFixed(1)} σ` : '';
   return { tone: 'warn', sentence: `Differs from mu by ${apart}${sigmas}.` };
 }
+
+/**
+ * A sentence when a curve next to the point was carried past its last reading (a curve the
+ * sweep cut at its dissipation or current limit), or null.
+ */
+export function extensionNote(op: OperatingPoint): string | null {
+  if (!(op.extendedVolts > 0)) return null;
+  const volts = op.extendedVolts < 10 ? op.extendedVolts.toFixed(1) : op.extendedVolts.toFixed(0);
+  return (
+    `A neighbouring curve stopped ${volts} V short of this Va (at the sweep's dissipation or ` +
+    'current limit) and was carried on along its last slope: these figures are less certain ' +
+    'than inside the measurements.'
+  );
+}

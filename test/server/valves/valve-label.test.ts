@@ -2,6 +2,7 @@ import QRCode from 'qrcode';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../../server/app';
+import { DEMO_STOCK } from '../../../server/demo/demo-stock';
 import { startTestHub, type TestHub } from '../test-hub';
 
 /** The dark modules of the QR code of `text`, as the label draws them. */
@@ -55,7 +56,7 @@ describe('printable valve labels', () => {
     const svg = res.body as string;
     const url = `http://bench-pc.local:4300/valves/${id}`;
     expect(svg).toContain(`data-url="${url}"`);
-    expect(svg).toContain('>KL-0025</text>');
+    expect(svg).toContain(`>KL-${String(DEMO_STOCK.length + 1).padStart(4, '0')}</text>`);
     expect(svg).toContain('>6L6GC</text>');
     expect(svg).toContain('&lt;Corrin &amp; Hale&gt; \u00b7 K7 3B');
     expect(svg).not.toContain('<Corrin');

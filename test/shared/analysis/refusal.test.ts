@@ -38,11 +38,29 @@ describe('the analysis refuses outside the measured region', () => {
     );
   });
 
-  it('refuses Va above a curve that stopped at the current limit', () => {
-    // The 0 V curve reaches 3 mA well below 300 V.
+  it('refuses Va far above a curve that stopped at the current limit', () => {
+    // The 0 V curve reaches 3 mA well below 300 V; a cut curve is carried on by at most 15 % of
+    // Va (CUT_CURVE_EXTENSION), and 30 % of its end is beyond that.
     expect(top(0)).toBeLessThan(200);
-    expect(reason(f.operatingPoint(top(0) + 20, -0.25))).toMatch(
+    expect(reason(f.operatingPoint(1.3 * top(0), -0.25))).toMatch(
       /above the measured range of the 0 V curve/,
+    );
+  });
+
+  it('carries a curve cut at the current limit a little way on, saying how far', () => {
+    const va = top(0) + 5;
+    const carried = f.operatingPoint(va, -0.25);
+    if (!carried.ok) throw new Error(carried.reason);
+    expect(carried.extendedVolts).toBeCloseTo(5, 6);
+    const inside = f.operatingPoint(top(0), -0.25);
+    if (!inside.ok) throw new Error(inside.reason);
+    expect(inside.extendedVolts).toBe(0);
+    // Against the law itself (noiseless readings): within 0.5 % and its stated uncertainty.
+    const law = korenLaw(model);
+    const ia = law(va, -0.25, 0).ia;
+    expect(Math.abs(carried.iaMilliamps.value - ia) / ia).toBeLessThan(0.005);
+    expect(Math.abs(carried.iaMilliamps.value - ia)).toBeLessThan(
+      3 * carried.iaMilliamps.uncertainty + 1e-4,
     );
   });
 
