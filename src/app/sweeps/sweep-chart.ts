@@ -29,8 +29,8 @@ export interface ChartPoint {
 /**
  * An extra series drawn over the measured curves (load lines, markers, model curves): an ECharts
  * series option with a stable id. Overlays stay out of the legend unless they have a `name`
- * (overlays sharing a name share one entry); with [crosshair] on, the readings alone set the
- * current axis.
+ * (overlays sharing a name share one entry); with [crosshair] or [fitReadings] on, the readings
+ * alone set the current axis.
  */
 export type ChartOverlay = { id: string } & Record<string, unknown>;
 
@@ -92,6 +92,8 @@ export class SweepChart {
   readonly overlays = input<readonly ChartOverlay[]>([]);
   /** Report the pointer's place instead of showing the tooltip box. */
   readonly crosshair = input(false);
+  /** Let the readings alone set the current axis (overlays beyond it are clipped). */
+  readonly fitReadings = input(false);
   /** Mark every Ia reading with a dot (for comparing the readings with a model). */
   readonly showReadings = input(false);
   /** The pointer's place over the plot, or null when it leaves the plot. */
@@ -125,6 +127,7 @@ export class SweepChart {
       this.points();
       this.overlays();
       this.showReadings();
+      this.fitReadings();
       this.scheduleFlush();
     });
     inject(DestroyRef).onDestroy(() => {
@@ -191,7 +194,9 @@ export class SweepChart {
       legend: { data: [...new Set([...measured.map((s) => s.name), ...named])] },
     };
     // Overlays such as a load line reach far above the curves: the readings set the scale.
-    if (untracked(this.crosshair)) option['yAxis'] = { max: currentAxisMax(points) };
+    if (untracked(this.crosshair) || untracked(this.fitReadings)) {
+      option['yAxis'] = { max: currentAxisMax(points) };
+    }
     chart.setOption(
       option,
       curvesChanged ? { replaceMerge: ['series'], lazyUpdate: true } : { lazyUpdate: true },

@@ -168,9 +168,6 @@ export function referenceComparison(
 ): ReferenceComparison | null {
   const op = drawing.type.operatingPoints[0];
   if (!op) return null;
-  const nominalLine = drawing.lines.find(
-    (l) => Math.abs(l.vg1Volts - op.vg1Volts) < SAME_GRID_VOLTS,
-  );
   const curve = plan.vg1Volts.findIndex((v) => Math.abs(v - op.vg1Volts) < SAME_GRID_VOLTS);
   const measured = points
     .filter((p) => p.curve === curve)
@@ -181,10 +178,20 @@ export function referenceComparison(
     vg1Volts: op.vg1Volts,
     vg2Volts: op.vg2Volts,
     publishedMilliamps: op.iaMilliamps,
-    nominalMilliamps: nominalLine ? interpolate(nominalLine.data, op.vaVolts) : null,
+    nominalMilliamps: nominalIaAt(drawing, op.vaVolts, op.vg1Volts),
     measuredMilliamps: curve >= 0 ? interpolate(measured, op.vaVolts) : null,
     source: op.source,
   };
+}
+
+/** Ia on the drawing's curve of this grid voltage at Va, mA; null off the drawn curves. */
+export function nominalIaAt(
+  drawing: NominalDrawing,
+  vaVolts: number,
+  vg1Volts: number,
+): number | null {
+  const line = drawing.lines.find((l) => Math.abs(l.vg1Volts - vg1Volts) < SAME_GRID_VOLTS);
+  return line ? interpolate(line.data, vaVolts) : null;
 }
 
 /** y at x on a line through [x, y] pairs sorted by x; null outside it. */

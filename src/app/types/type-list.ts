@@ -1,17 +1,28 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
-import { RouterLink } from '@angular/router';
+import { Router, RouterLink } from '@angular/router';
 import { apiErrorMessage } from '../core/api-error-message';
+import { Auth } from '../core/auth';
 import { GradeSettings } from './grade-settings';
+import { NewTypeDialog } from './new-type-dialog';
 import { TypesApi, type TypeView } from './types-api';
 
 /** The type library: every type with its heater, base and reference point. */
 @Component({
   selector: 'app-type-list',
-  imports: [GradeSettings, MatIconModule, RouterLink],
+  imports: [GradeSettings, MatButtonModule, MatIconModule, RouterLink],
   template: `
     <div class="page">
-      <h1 class="page-title">Types</h1>
+      <header class="head">
+        <h1 class="page-title">Types</h1>
+        @if (auth.isAdmin()) {
+          <button mat-flat-button type="button" (click)="addType()">
+            <mat-icon svgIcon="add" />New type
+          </button>
+        }
+      </header>
       @if (error(); as message) {
         <p class="error" role="alert">{{ message }}</p>
       }
@@ -55,6 +66,17 @@ import { TypesApi, type TypeView } from './types-api';
     </div>
   `,
   styles: `
+    .head {
+      display: flex;
+      flex-wrap: wrap;
+      align-items: center;
+      justify-content: space-between;
+      gap: 12px;
+      margin-bottom: 12px;
+      .page-title {
+        margin: 0;
+      }
+    }
     .table-panel {
       overflow: auto;
       margin-bottom: 16px;
@@ -86,6 +108,9 @@ import { TypesApi, type TypeView } from './types-api';
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class TypeList {
+  protected readonly auth = inject(Auth);
+  private readonly dialog = inject(MatDialog);
+  private readonly router = inject(Router);
   protected readonly types = signal<TypeView[]>([]);
   protected readonly loading = signal(true);
   protected readonly error = signal<string | null>(null);
@@ -102,6 +127,16 @@ export class TypeList {
           this.loading.set(false);
           this.error.set(apiErrorMessage(err, 'The type library did not load.'));
         },
+      });
+  }
+
+  /** Admin only: the new-type form; a type added opens on its own page. */
+  protected addType(): void {
+    this.dialog
+      .open<NewTypeDialog, void, TypeView>(NewTypeDialog, { width: '820px', maxWidth: '95vw' })
+      .afterClosed()
+      .subscribe((type) => {
+        if (type) void this.router.navigate(['/types', type.designation]);
       });
   }
 

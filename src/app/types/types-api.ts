@@ -3,6 +3,7 @@ import { inject, Injectable } from '@angular/core';
 import type { Observable } from 'rxjs';
 import type { GradeThresholds } from '../../../shared/grading/grade-thresholds';
 import type { SweepPlan } from '../../../shared/domain/sweep';
+import type { NewTypeBody } from './new-type-form';
 
 /** A typical operating point with its source: V, mA, µS, kΩ. */
 export interface OperatingPointView {
@@ -103,6 +104,11 @@ export class TypesApi {
 
   list(): Observable<TypeView[]> {
     return this.http.get<TypeView[]>('/api/valve-types');
+  }
+
+  /** Admin only: adds a type; 409 when the designation or an equivalent is taken. */
+  create(body: NewTypeBody): Observable<TypeView> {
+    return this.http.post<TypeView>('/api/valve-types', body);
   }
 
   get(designation: string): Observable<TypeView> {

@@ -9,11 +9,32 @@ export function latestFigures(trend: readonly SweepFigures[]): SweepFigures | nu
   return null;
 }
 
+/** Percentages closer than this are the same figure, % (the hub rounds to four digits). */
+const SAME_PERCENT = 0.05;
+
 /**
- * Why a valve has its grade, e.g. "gm 64 % of nominal at 250 V / -2 V": the grade follows the
- * lower of the gm and Ia percentages, so that one is named.
+ * Which figure a grade of `percent` was taken from: the one whose percentage it is, so the
+ * reason always names the figure behind the chip; gm when it cannot tell (the hub grades by gm
+ * where gm is known).
  */
-export function gradeReason(trend: readonly SweepFigures[], point: ReferencePoint): string {
+function gradedFigure(figures: SweepFigures, percent: number | null): 'gm' | 'Ia' {
+  const gm = figures.gmPercent;
+  const ia = figures.iaPercent;
+  if (gm === null) return 'Ia';
+  if (ia === null || percent === null) return 'gm';
+  if (Math.abs(gm - percent) < SAME_PERCENT) return 'gm';
+  return Math.abs(ia - percent) < SAME_PERCENT ? 'Ia' : 'gm';
+}
+
+/**
+ * Why a valve has its grade, e.g. "gm 64 % of nominal at 250 V / -2 V", naming the figure whose
+ * percentage (`percent`, the grade's) decided it.
+ */
+export function gradeReason(
+  trend: readonly SweepFigures[],
+  point: ReferencePoint,
+  percent: number | null = null,
+): string {
   const figures = latestFigures(trend);
   if (!figures) {
     const newest = trend.at(-1);
@@ -21,12 +42,10 @@ export function gradeReason(trend: readonly SweepFigures[], point: ReferencePoin
       ? `No figures from the newest sweep: ${newest.refusal}.`
       : 'No sweep with figures at the reference point yet.';
   }
-  const gm = figures.gmPercent;
-  const ia = figures.iaPercent;
-  const useGm = gm !== null && (ia === null || gm <= ia);
-  const percent = useGm ? gm : ia;
+  const useGm = gradedFigure(figures, percent) === 'gm';
+  const shown = useGm ? figures.gmPercent : figures.iaPercent;
   const va = figures.vaVolts ?? point.vaVolts;
   const vg1 = figures.vg1Volts ?? point.vg1Volts;
   const where = point.vg2Volts !== null ? ` (Vg2 ${point.vg2Volts} V)` : '';
-  return `${useGm ? 'gm' : 'Ia'} ${Math.round(percent!)} % of nominal at ${va} V / ${vg1} V${where}`;
+  return `${useGm ? 'gm' : 'Ia'} ${Math.round(shown!)} % of nominal at ${va} V / ${vg1} V${where}`;
 }

@@ -1,3 +1,4 @@
+import type { HardFail } from '../../../shared/grading/grade-quick-test';
 import type { ValveGrade } from '../../../shared/grading/grade-thresholds';
 import type { OriginKind, ValveStatus } from './valves-api';
 
@@ -23,4 +24,13 @@ export const GRADE_LABELS: Record<ValveGrade, string> = {
   strong: 'Strong',
   fair: 'Fair',
   weak: 'Weak',
+};
+
+/** Words for a fault a quick test found. */
+export const HARD_FAIL_LABELS: Record<HardFail, string> = {
+  'open-heater': 'Open heater',
+  short: 'Short',
+  leaky: 'Leaky',
+  gassy: 'Gassy',
+  'worn-cathode': 'Worn cathode',
 };

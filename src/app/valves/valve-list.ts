@@ -14,6 +14,7 @@ import { MatSortModule, type Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
 import { catchError, debounceTime, distinctUntilChanged, EMPTY, of, switchMap, tap } from 'rxjs';
+import { HARD_FAILS } from '../../../shared/grading/grade-quick-test';
 import { VALVE_GRADES } from '../../../shared/grading/grade-thresholds';
 import { apiErrorMessage } from '../core/api-error-message';
 import { Auth } from '../core/auth';
@@ -21,7 +22,7 @@ import { dispositionFileName, saveBlob } from '../core/save-blob';
 import { ValveTypesApi } from '../core/valve-types-api';
 import { CreateValveDialog } from './create-valve-dialog';
 import { ValveGradeChip } from './valve-grade-chip';
-import { GRADE_LABELS, STATUS_LABELS } from './valve-labels';
+import { GRADE_LABELS, HARD_FAIL_LABELS, STATUS_LABELS } from './valve-labels';
 import {
   VALVE_STATUSES,
   ValvesApi,
@@ -72,6 +73,7 @@ export class ValveList {
   protected readonly statuses = VALVE_STATUSES.map((s) => ({ value: s, label: STATUS_LABELS[s] }));
   protected readonly grades = [
     ...VALVE_GRADES.map((g) => ({ value: g, label: GRADE_LABELS[g] })),
+    ...HARD_FAILS.map((g) => ({ value: g, label: HARD_FAIL_LABELS[g] })),
     { value: 'ungraded' as const, label: 'Not graded' },
   ];
   protected readonly pageSizes = [10, 25, 50, 100];

@@ -4,68 +4,42 @@ import { importProvidersFrom } from '@angular/core';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatIconTestingModule } from '@angular/material/icon/testing';
-import { provideRouter } from '@angular/router';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { MatButtonHarness } from '@angular/material/button/testing';
+import { MatDialogHarness } from '@angular/material/dialog/testing';
+import { provideRouter, Router } from '@angular/router';
 import { provideEchartsCore } from 'ngx-echarts';
 import { storeSession, sweepView, VALVE_TYPE_VIEWS } from '../../testing/fixtures';
 import { gradeReason } from './grade-reason';
 import { photoProblem } from './valve-photos';
 import { ValveRecord } from './valve-record';
-import { valveView } from './valve-view-fixture';
+import { quickTestSummary, valveDetail, valveView } from './valve-view-fixture';
 import type { ValveDetail } from './valves-api';
 
-function detail(): ValveDetail {
-  return {
-    ...valveView({ grade: 'weak', percentOfNominal: 64 }),
-    referencePoint: {
-      vaVolts: 250,
-      vg2Volts: null,
-      vg1Volts: -2,
-      iaMilliamps: 1.2,
-      gmMicrosiemens: 1600,
-    },
-    sweeps: [sweepView({ id: 41 }), sweepView({ id: 40 })],
-    trend: [
-      {
-        sweepId: 40,
-        at: '2026-11-01T10:00:00Z',
-        vaVolts: 250,
-        vg1Volts: -2,
-        iaMilliamps: 1.1,
-        gmMicrosiemens: 1500,
-        raKiloohms: 66,
-        mu: 99,
-        iaPercent: 92,
-        gmPercent: 94,
-        refusal: null,
-      },
-      {
-        sweepId: 41,
-        at: '2026-11-30T10:00:00Z',
-        vaVolts: 250,
-        vg1Volts: -2,
-        iaMilliamps: 0.9,
-        gmMicrosiemens: 1024,
-        raKiloohms: 90,
-        mu: 92,
-        iaPercent: 75,
-        gmPercent: 64,
-        refusal: null,
-      },
-    ],
-  };
+function detail(over: Partial<ValveDetail> = {}): ValveDetail {
+  return valveDetail({ sweeps: [sweepView({ id: 41 }), sweepView({ id: 40 })], ...over });
 }
+
+/** The hub's grade from a quick test newer than the sweeps. */
+const GRADED_BY_TEST: Partial<ValveDetail> = {
+  grade: 'strong',
+  percentOfNominal: 95,
+  gradeSource: 'quick-test',
+  gradedAt: '2026-12-01T11:00:40.000Z',
+  quickTests: [quickTestSummary()],
+};
 
 describe('ValveRecord', () => {
   let fixture: ComponentFixture<ValveRecord>;
   let http: HttpTestingController;
   const element = () => fixture.nativeElement as HTMLElement;
 
-  async function render(role: 'technician' | 'viewer') {
+  async function render(role: 'technician' | 'viewer' | 'admin', over: Partial<ValveDetail> = {}) {
     storeSession(role);
     TestBed.configureTestingModule({
       imports: [ValveRecord],
       providers: [
-        provideRouter([]),
+        provideRouter([{ path: 'valves', children: [] }]),
         provideHttpClient(),
         provideHttpClientTesting(),
         provideEchartsCore({ echarts: () => import('../echarts-setup') }),
@@ -82,12 +56,19 @@ describe('ValveRecord', () => {
     http
       .expectOne('/api/settings')
       .flush({ gradeThresholds: { strongMinPercent: 80, fairMinPercent: 65 } });
-    http.expectOne('/api/valves/7').flush(detail());
+    http.expectOne('/api/valves/7').flush(detail(over));
     http
       .expectOne('/api/valves/7/label.svg')
       .flush('<svg xmlns="http://www.w3.org/2000/svg"></svg>');
     await fixture.whenStable();
     http.expectOne('/api/valves/7/photos').flush([]);
+    http.expectOne('/api/valve-types/12AX7/nominal-curves').flush({
+      designation: '12AX7',
+      source: null,
+      uploadedBy: null,
+      uploadedAt: null,
+      curves: [],
+    });
     await fixture.whenStable();
   }
 
@@ -103,17 +84,37 @@ describe('ValveRecord', () => {
     expect(grade).toContain('gm 64 % of nominal at 250 V / -2 V');
   });
 
-  it('compares the newest figures with the nominal ones, ra and mu included', async () => {
-    await render('technician');
-    const rows = [...element().querySelectorAll('table.nominal tbody tr')].map((r) =>
-      [...r.querySelectorAll('td')].map((c) => c.textContent!.trim()),
+  it('grades by a quick test newer than the sweeps, and says where the grade comes from', async () => {
+    await render('technician', GRADED_BY_TEST);
+    const grade = element().querySelector('.grade')!.textContent!.replace(/\s+/g, ' ');
+    expect(grade).toContain('Strong · 95 %');
+    expect(grade).toContain('gm 95 % of nominal (1520 of 1600 uS) at 250 V / -2 V');
+    expect(grade).toContain('From quick test #5 of 2026-12-01');
+    const tests = element().querySelector('app-valve-quick-tests table')!.textContent!;
+    expect(tests).toContain('1.52');
+    expect(tests).toContain('0.96');
+  });
+
+  it('shows a fault a quick test found as the grade, without a percentage', async () => {
+    await render('technician', {
+      ...GRADED_BY_TEST,
+      grade: 'gassy',
+      percentOfNominal: 97,
+      quickTests: [
+        quickTestSummary({ grade: 'gassy', reason: 'reverse grid current 2.1 uA: gas' }),
+      ],
+    });
+    const grade = element().querySelector('.grade')!.textContent!.replace(/\s+/g, ' ');
+    expect(grade).toContain('Gassy reverse grid current 2.1 uA: gas');
+    expect(grade).not.toContain('97 %');
+  });
+
+  it('draws the trend of the sweeps and the quick tests together', async () => {
+    await render('technician', GRADED_BY_TEST);
+    const chart = element().querySelector('app-valve-trend-chart [role=img]')!;
+    expect(chart.getAttribute('aria-label')).toBe(
+      'Trend of gm and Ia over 2 sweeps and 1 quick test; newest gm 1.52 mA/V, Ia 0.96 mA',
     );
-    expect(rows).toEqual([
-      ['Ia (mA)', '0.9', '1.2', '75 %'],
-      ['gm (mA/V)', '1.02', '1.6', '64 %'],
-      ['ra (kΩ)', '90', '62.5', '144 %'],
-      ['mu', '92', '100', '92 %'],
-    ]);
   });
 
   it('lists the sweeps newest first with links to them', async () => {
@@ -122,6 +123,10 @@ describe('ValveRecord', () => {
       a.getAttribute('href'),
     );
     expect(links).toEqual(['/sweeps/41', '/sweeps/40']);
+    const gm = [...element().querySelectorAll('table.sweeps tbody tr')].map((r) =>
+      r.children[5].textContent!.trim(),
+    );
+    expect(gm).toEqual(['1.02', '1.5']);
   });
 
   it('sends only the fields of the record when a technician saves', async () => {
@@ -150,6 +155,38 @@ describe('ValveRecord', () => {
     const location = element().querySelector('input[formcontrolname=location]') as HTMLInputElement;
     expect(location.disabled).toBe(true);
     expect(element().textContent).not.toContain('Save changes');
+    expect(element().textContent).not.toContain('Delete record');
+  });
+
+  it('lets an admin delete the record after a confirmation naming its label', async () => {
+    await render('admin');
+    const remove = [...element().querySelectorAll('button')].find((b) =>
+      b.textContent!.includes('Delete record'),
+    )!;
+    remove.click();
+    await fixture.whenStable();
+    const loader = TestbedHarnessEnvironment.documentRootLoader(fixture);
+    const dialog = await loader.getHarness(MatDialogHarness);
+    expect(await dialog.getTitleText()).toBe('Delete WK-0007?');
+    expect(await dialog.getContentText()).toContain('Its 2 sweeps and 0 quick tests stay');
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Delete WK-0007' }))).click();
+    const req = http.expectOne((r) => r.method === 'DELETE' && r.url === '/api/valves/7');
+    req.flush(null, { status: 204, statusText: 'No Content' });
+    await fixture.whenStable();
+    expect(TestBed.inject(Router).url).toBe('/valves');
+  });
+
+  it('does not delete when the admin keeps the record', async () => {
+    await render('admin');
+    [...element().querySelectorAll('button')]
+      .find((b) => b.textContent!.includes('Delete record'))!
+      .click();
+    await fixture.whenStable();
+    const loader = TestbedHarnessEnvironment.documentRootLoader(fixture);
+    const dialog = await loader.getHarness(MatDialogHarness);
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Keep the record' }))).click();
+    await fixture.whenStable();
+    http.expectNone((r) => r.method === 'DELETE');
   });
 });
 
@@ -185,8 +222,14 @@ describe('gradeReason', () => {
     refusal: null,
   };
 
-  it('names Ia when Ia is the lower percentage, with the screen voltage', () => {
-    expect(gradeReason([figures], point)).toBe('Ia 70 % of nominal at 250 V / -13.5 V (Vg2 250 V)');
+  it("names Ia when the grade's percentage is Ia's, with the screen voltage", () => {
+    expect(gradeReason([figures], point, 70)).toBe(
+      'Ia 70 % of nominal at 250 V / -13.5 V (Vg2 250 V)',
+    );
+  });
+
+  it('names gm when the percentage does not tell, as the hub grades by gm where known', () => {
+    expect(gradeReason([figures], point)).toBe('gm 82 % of nominal at 250 V / -13.5 V (Vg2 250 V)');
   });
 
   it('gives the reason of the newest sweep when it has no figures', () => {

@@ -1,4 +1,4 @@
-import { DatePipe, DecimalPipe, DOCUMENT } from '@angular/common';
+import { DatePipe, DOCUMENT } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -13,45 +13,48 @@ import { toSignal } from '@angular/core/rxjs-interop';
 import { HttpClient } from '@angular/common/http';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
-import { RouterLink } from '@angular/router';
-import { catchError, of } from 'rxjs';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { Router, RouterLink } from '@angular/router';
+import { catchError, filter, of, switchMap } from 'rxjs';
 import type { GradeThresholds } from '../../../shared/grading/grade-thresholds';
 import { apiErrorMessage } from '../core/api-error-message';
 import { Auth } from '../core/auth';
-import { ValveTypesApi } from '../core/valve-types-api';
 import { SweepStatusChip } from '../sweeps/sweep-status-chip';
-import { gradeReason, latestFigures } from './grade-reason';
+import { typeFor } from '../sweeps/sweep-nominal';
+import { TypesApi } from '../types/types-api';
+import { DeleteValveDialog, type DeleteValveDialogData } from './delete-valve-dialog';
+import { figureText } from './family-figures';
+import { recordGrade } from './record-grade';
+import { trendPoints } from './trend-points';
+import { ValveFamily } from './valve-family';
 import { ValveFieldsForm } from './valve-fields-form';
 import { ValveGradeChip } from './valve-grade-chip';
 import { ORIGIN_LABELS, STATUS_LABELS } from './valve-labels';
 import { ValvePhotos } from './valve-photos';
+import { ValveQuickTests } from './valve-quick-tests';
 import { ValveTrendChart } from './valve-trend-chart';
 import { ValvesApi, type ValveDetail } from './valves-api';
 
-/** A row of the measured-against-nominal table. */
-interface NominalRow {
-  figure: string;
-  unit: string;
-  measured: number | null;
-  nominal: number | null;
-  percent: number | null;
-}
-
-/** One valve's record: its fields, grade, photos, label, sweeps and the trend of its figures. */
+/**
+ * One valve's record: its grade and why, fields, label, its curves against the type's nominal
+ * ones, the trend of its figures, its quick tests, sweeps and photos.
+ */
 @Component({
   selector: 'app-valve-record',
   imports: [
     DatePipe,
-    DecimalPipe,
     MatButtonModule,
     MatIconModule,
     ReactiveFormsModule,
     RouterLink,
     SweepStatusChip,
+    ValveFamily,
     ValveFieldsForm,
     ValveGradeChip,
     ValvePhotos,
+    ValveQuickTests,
     ValveTrendChart,
   ],
   templateUrl: './valve-record.html',
@@ -64,9 +67,12 @@ export class ValveRecord {
 
   private readonly api = inject(ValvesApi);
   private readonly document = inject(DOCUMENT);
+  private readonly dialog = inject(MatDialog);
+  private readonly snackBar = inject(MatSnackBar);
+  private readonly router = inject(Router);
   protected readonly auth = inject(Auth);
   protected readonly types = toSignal(
-    inject(ValveTypesApi)
+    inject(TypesApi)
       .list()
       .pipe(catchError(() => of([]))),
     { initialValue: [] },
@@ -89,54 +95,39 @@ export class ValveRecord {
   private labelSvg = '';
 
   protected readonly valveId = computed(() => Number(this.id()));
-  protected readonly latest = computed(() => latestFigures(this.valve()?.trend ?? []));
-  protected readonly referenceText = computed(() => {
-    const p = this.valve()?.referencePoint;
-    if (!p) return '';
-    const vg2 = p.vg2Volts !== null ? `, Vg2 ${p.vg2Volts} V` : '';
-    return `Va ${p.vaVolts} V, Vg1 ${p.vg1Volts} V${vg2}`;
-  });
-  protected readonly reason = computed(() => {
+  protected readonly grade = computed(() => {
     const v = this.valve();
-    return v ? gradeReason(v.trend, v.referencePoint) : '';
+    return v ? recordGrade(v) : null;
   });
-  private readonly type = computed(
-    () => this.types().find((t) => t.designation === this.valve()?.type) ?? null,
+  protected readonly trend = computed(() =>
+    trendPoints(this.valve()?.trend ?? [], this.valve()?.quickTests ?? []),
   );
-  protected readonly nominalRows = computed<NominalRow[]>(() => {
+  /** The data sheet's gm (mA/V) and Ia (mA) at the reference point. */
+  protected readonly trendNominal = computed(() => {
+    const p = this.valve()?.referencePoint;
+    return p
+      ? {
+          gmMilliampsPerVolt: p.gmMicrosiemens === null ? null : p.gmMicrosiemens / 1000,
+          iaMilliamps: p.iaMilliamps,
+        }
+      : null;
+  });
+  /** gm (mA/V) and Ia (mA) of each sweep at the reference point, by sweep id. */
+  protected readonly sweepFigures = computed(
+    () =>
+      new Map(
+        (this.valve()?.trend ?? []).map((f) => [
+          f.sweepId,
+          {
+            gm: figureText(f.gmMicrosiemens === null ? null : f.gmMicrosiemens / 1000),
+            ia: figureText(f.iaMilliamps),
+          },
+        ]),
+      ),
+  );
+  protected readonly type = computed(() => {
     const v = this.valve();
-    const f = this.latest();
-    if (!v || !f) return [];
-    const op = this.type()?.operatingPoints[0];
-    const pct = (m: number | null, n: number | null | undefined) =>
-      m !== null && n ? (m / n) * 100 : null;
-    const nominalRa = op?.raKiloohms ?? null;
-    const nominalMu = op?.mu ?? null;
-    return [
-      {
-        figure: 'Ia',
-        unit: 'mA',
-        measured: f.iaMilliamps,
-        nominal: v.referencePoint.iaMilliamps,
-        percent: f.iaPercent,
-      },
-      {
-        figure: 'gm',
-        unit: 'mA/V',
-        measured: f.gmMicrosiemens === null ? null : f.gmMicrosiemens / 1000,
-        nominal:
-          v.referencePoint.gmMicrosiemens === null ? null : v.referencePoint.gmMicrosiemens / 1000,
-        percent: f.gmPercent,
-      },
-      {
-        figure: 'ra',
-        unit: 'kΩ',
-        measured: f.raKiloohms,
-        nominal: nominalRa,
-        percent: pct(f.raKiloohms, nominalRa),
-      },
-      { figure: 'mu', unit: '', measured: f.mu, nominal: nominalMu, percent: pct(f.mu, nominalMu) },
-    ];
+    return v ? typeFor(this.types(), v.type) : null;
   });
 
   constructor() {
@@ -144,14 +135,6 @@ export class ValveRecord {
       const id = this.valveId();
       untracked(() => this.load(id));
     });
-  }
-
-  /** A measured or nominal figure to three significant digits: 0.0545 mA stays readable. */
-  protected figure(value: number | null): string {
-    if (value === null) return '—';
-    return Math.abs(value) >= 100
-      ? String(Math.round(value * 10) / 10)
-      : String(Number(value.toPrecision(3)));
   }
 
   protected save(): void {
@@ -170,6 +153,40 @@ export class ValveRecord {
         this.saveMessage.set(apiErrorMessage(err, 'The changes were not saved.'));
       },
     });
+  }
+
+  /** Admin only: asks, naming the label, then deletes the record and returns to the list. */
+  protected deleteRecord(): void {
+    const v = this.valve();
+    if (!v) return;
+    const data: DeleteValveDialogData = {
+      label: v.label,
+      type: v.type,
+      sweepCount: v.sweeps.length,
+      quickTestCount: v.quickTests.length,
+    };
+    this.dialog
+      .open<DeleteValveDialog, DeleteValveDialogData, boolean>(DeleteValveDialog, {
+        data,
+        width: '480px',
+        maxWidth: '95vw',
+      })
+      .afterClosed()
+      .pipe(
+        filter((yes) => yes === true),
+        switchMap(() => this.api.remove(v.id)),
+      )
+      .subscribe({
+        next: () => {
+          this.snackBar.open(`${v.label} deleted.`, 'Dismiss', { duration: 5000 });
+          void this.router.navigate(['/valves']);
+        },
+        error: (err: unknown) =>
+          this.snackBar.open(
+            `${v.label} was not deleted: ${apiErrorMessage(err, 'the hub refused.')}`,
+            'Dismiss',
+          ),
+      });
   }
 
   /** Opens a window holding only the label and asks the browser to print it. */

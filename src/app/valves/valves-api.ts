@@ -1,8 +1,9 @@
 import { HttpClient, HttpParams, type HttpResponse } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import type { Observable } from 'rxjs';
+import type { HardFail, QuickTestGradeName } from '../../../shared/grading/grade-quick-test';
 import type { ValveGrade } from '../../../shared/grading/grade-thresholds';
-import type { SweepView } from '../../../shared/hub/messages';
+import type { QuickTestStatus, SweepView } from '../../../shared/hub/messages';
 
 /** Where a valve stands in the workshop (as the hub's valve-status list). */
 export const VALVE_STATUSES = [
@@ -21,6 +22,9 @@ export const ORIGIN_KINDS = ['lot', 'supplier', 'customer'] as const;
 /** Kind of a valve's origin. */
 export type OriginKind = (typeof ORIGIN_KINDS)[number];
 
+/** A record's grade: a quality grade by % of nominal, or a fault a quick test found. */
+export type RecordGradeName = ValveGrade | HardFail;
+
 /** A valve record as GET /api/valves lists it. */
 export interface ValveView {
   id: number;
@@ -33,9 +37,14 @@ export interface ValveView {
   location: string | null;
   status: ValveStatus;
   notes: string | null;
-  grade: ValveGrade | null;
-  /** Lower of gm and Ia as % of nominal at the reference point, newest sweep. */
+  /** From the newest sweep with figures or completed quick test. */
+  grade: RecordGradeName | null;
+  /** gm (Ia where gm is unknown) as % of nominal at the reference point. */
   percentOfNominal: number | null;
+  /** What the grade is from. */
+  gradeSource: 'sweep' | 'quick-test' | null;
+  /** ISO time of that sweep or quick test. */
+  gradedAt: string | null;
   sweepCount: number;
   lastSweepAt: string | null;
   createdBy: string | null;
@@ -69,6 +78,26 @@ export interface ReferencePoint {
   gmMicrosiemens: number | null;
 }
 
+/** A quick test as a valve's record lists it: V, mA, µS, %. */
+export interface QuickTestSummary {
+  id: number;
+  /** When it ended (or was created, if it never ran). */
+  at: string;
+  status: QuickTestStatus;
+  /** Grade name, or null when it ended without one. */
+  grade: QuickTestGradeName | null;
+  reason: string | null;
+  /** The graded figure (gm or emission), % of nominal. */
+  percent: number | null;
+  vaVolts: number | null;
+  vg1Volts: number | null;
+  iaMilliamps: number | null;
+  gmMicrosiemens: number | null;
+  iaPercent: number | null;
+  gmPercent: number | null;
+  operator: string;
+}
+
 /** Answer of GET /api/valves/:id. */
 export interface ValveDetail extends ValveView {
   referencePoint: ReferencePoint;
@@ -76,6 +105,8 @@ export interface ValveDetail extends ValveView {
   sweeps: SweepView[];
   /** Oldest first. */
   trend: SweepFigures[];
+  /** Newest first, at most 200. */
+  quickTests: QuickTestSummary[];
 }
 
 /** Editable fields of a valve record. */
@@ -102,7 +133,7 @@ export interface ValveQuery {
   order: 'asc' | 'desc';
   type: string;
   status: ValveStatus | '';
-  grade: ValveGrade | 'ungraded' | '';
+  grade: RecordGradeName | 'ungraded' | '';
   location: string;
   q: string;
 }
@@ -166,6 +197,11 @@ export class ValvesApi {
 
   update(id: number, fields: ValveFields): Observable<ValveView> {
     return this.http.patch<ValveView>(`/api/valves/${id}`, fields);
+  }
+
+  /** Admin only: deletes the record and its photos; its sweeps and quick tests stay. */
+  remove(id: number): Observable<unknown> {
+    return this.http.delete(`/api/valves/${id}`);
   }
 
   /** Every record as CSV, as a blob: the bearer header rules out a plain link. */
