@@ -1,6 +1,5 @@
 import type { Routes } from '@angular/router';
-import { authGuard } from '../core/auth-guard';
-import { adminGuard } from './admin-guard';
+import { adminGuard, authGuard } from '../core/auth-guard';
 
 /** Signed-in pages of reports and the outbox (inside the shell). */
 export const REPORT_SHELL_ROUTES: Routes = [

@@ -17,6 +17,9 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { path: '/sweeps', label: 'Sweeps', icon: 'table_rows', roles: EVERYONE },
   { path: '/valves', label: 'Valves', icon: 'inventory_2', roles: EVERYONE },
   { path: '/box-check', label: 'Box check', icon: 'check_circle', roles: ['admin', 'technician'] },
+  { path: '/matching', label: 'Matching', icon: 'compare_arrows', roles: ['admin', 'technician'] },
+  { path: '/match-sets', label: 'Match sets', icon: 'sell', roles: EVERYONE },
   { path: '/types', label: 'Types', icon: 'category', roles: EVERYONE },
+  { path: '/outbox', label: 'Outbox', icon: 'outbox', roles: ['admin'] },
   { path: '/settings', label: 'Settings', icon: 'settings', roles: ['admin'] },
 ];
