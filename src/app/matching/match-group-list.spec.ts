@@ -50,12 +50,41 @@ describe('MatchGroupList', () => {
         [...r.querySelectorAll('td')].map((c) => text(c)),
       );
     expect(rows(0)).toEqual([
-      ['idle Va 250 V, Vg1 -13.5 V, Vg2 250 V', '88.9 mA', '2.7 %', '11145 µS', '2.1 %', '-13.5 V'],
+      ['idle Va 250 V, Vg1 -13.5 V, Vg2 250 V', '88.9 mA', '2.7 %', '11145 µS', '2.1 %'],
     ]);
     expect(rows(1)[1]).toEqual([
       'whole curves in the window',
       'largest difference between two members',
       '6.2 %',
+    ]);
+  });
+
+  it('shows the grid voltages of an equal-current point, where Ia agrees by choice', async () => {
+    const run = matchRun();
+    run.groups[0].points = [
+      {
+        label: 'at 50 mA',
+        section: 1,
+        kind: 'equal-current',
+        iaMeanMilliamps: 50,
+        iaSpreadPercent: null,
+        gmMeanMicrosiemens: 9000,
+        gmSpreadPercent: 1.5,
+        vg1MeanVolts: -16.2,
+        vg1SpreadVolts: 0.8,
+      },
+    ];
+    await render(run);
+    const cells = [
+      ...element().querySelectorAll('li.group')[0].querySelectorAll('tbody tr td'),
+    ].map((c) => text(c));
+    expect(cells).toEqual([
+      'at 50 mA',
+      '50 mA',
+      'equal by choice',
+      '9000 µS',
+      '1.5 %',
+      '-16.2 V (spread 0.8 V)',
     ]);
   });
 

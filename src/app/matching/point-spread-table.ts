@@ -14,7 +14,9 @@ import type { PointSpread } from './matching-api';
           <th class="num">Ia spread</th>
           <th class="num">gm mean</th>
           <th class="num">gm spread</th>
-          <th class="num">Vg1 mean</th>
+          @if (equalCurrent()) {
+            <th class="num">Vg1 mean</th>
+          }
         </tr>
       </thead>
       <tbody>
@@ -32,17 +34,21 @@ import type { PointSpread } from './matching-api';
             </td>
             <td class="num readout">{{ figure(p.gmMeanMicrosiemens) }} µS</td>
             <td class="num readout">{{ percent(p.gmSpreadPercent) }}</td>
-            <td class="num readout">
-              {{ figure(p.vg1MeanVolts) }} V{{
-                p.kind === 'equal-current' ? ' (spread ' + figure(p.vg1SpreadVolts) + ' V)' : ''
-              }}
-            </td>
+            @if (equalCurrent()) {
+              <td class="num readout">
+                {{ figure(p.vg1MeanVolts) }} V{{
+                  p.kind === 'equal-current' ? ' (spread ' + figure(p.vg1SpreadVolts) + ' V)' : ''
+                }}
+              </td>
+            }
           </tr>
         }
         @if (curveSpreadPercent() !== null) {
           <tr>
             <td>whole curves in the window</td>
-            <td colspan="4" class="num">largest difference between two members</td>
+            <td [attr.colspan]="equalCurrent() ? 4 : 3" class="num">
+              largest difference between two members
+            </td>
             <td class="num readout">{{ percent(curveSpreadPercent()) }}</td>
           </tr>
         }
@@ -92,6 +98,10 @@ export class PointSpreadTable {
 
   protected readonly percent = percentText;
   protected readonly figure = figureText;
+  /** The Vg1 column is shown only where a point takes each valve at its own Vg1. */
+  protected readonly equalCurrent = computed(() =>
+    this.points().some((p) => p.kind === 'equal-current'),
+  );
   /** Section names shown: some point is of section 2. */
   protected readonly sectioned = computed(() => this.points().some((p) => p.section > 1));
 }
