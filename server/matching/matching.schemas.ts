@@ -85,6 +85,8 @@ const pointSpread = z.object({
   label: z.string(),
   section: z.number().int(),
   kind: z.enum(['fixed-bias', 'equal-current']),
+  vaVolts: z.number().optional().describe('Anode voltage of the point, V (absent on old runs)'),
+  vg2Volts: z.number().nullable().optional().describe('Screen voltage, V; null for triodes'),
   iaMeanMilliamps: z.number(),
   iaSpreadPercent: z.number().nullable(),
   gmMeanMicrosiemens: z.number(),

@@ -55,8 +55,10 @@ export function renderMatchReportPdf(report: MatchReport): Promise<Buffer> {
   );
   for (const p of f.points as Record<string, number | string | null>[]) {
     const ia = p.iaSpreadPercent === null ? 'equal current' : `${fmt(p.iaSpreadPercent, 2)} %`;
+    const screen = typeof p.vg2Volts === 'number' ? `, Vg2 ${fmt(p.vg2Volts, 3)} V` : '';
+    const where = typeof p.vaVolts === 'number' ? ` (Va ${fmt(p.vaVolts, 3)} V${screen})` : '';
     doc.text(
-      `At ${p.label}: mean Ia ${fmt(p.iaMeanMilliamps, 3)} mA, Ia spread ${ia}; ` +
+      `At ${p.label}${where}: mean Ia ${fmt(p.iaMeanMilliamps, 3)} mA, Ia spread ${ia}; ` +
         `mean gm ${fmt(p.gmMeanMicrosiemens, 0)} µS, gm spread ${fmt(p.gmSpreadPercent, 2)} %.`,
     );
   }

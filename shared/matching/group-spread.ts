@@ -10,6 +10,10 @@ export interface PointSpread {
   section: 1 | 2;
   /** Fixed bias or equal current. */
   kind: 'fixed-bias' | 'equal-current';
+  /** Anode voltage of the point, V. */
+  vaVolts: number;
+  /** Screen voltage of the point, V (null for triodes). */
+  vg2Volts: number | null;
   /** Mean anode current of the members, mA. */
   iaMeanMilliamps: number;
   /** (max - min) of Ia in % of the mean (null at equal-current points, where it is 0 by design). */
@@ -68,6 +72,8 @@ export function groupSpread(
         label: p.label,
         section: (s + 1) as 1 | 2,
         kind: p.kind,
+        vaVolts: p.vaVolts,
+        vg2Volts: p.vg2Volts,
         iaMeanMilliamps: ia.mean,
         iaSpreadPercent: fixed ? ia.percent : null,
         gmMeanMicrosiemens: gm.mean,

@@ -54,6 +54,9 @@ export interface ReportPointSpread {
   gmMeanMicrosiemens: number;
   gmSpreadPercent: number;
   vg1MeanVolts: number;
+  /** Anode and screen voltage of the point, V (absent on sets made before they were kept). */
+  vaVolts?: number;
+  vg2Volts?: number | null;
   vg1SpreadVolts: number;
 }
 

@@ -122,6 +122,9 @@ describe('valve distance', () => {
     const d = valveDistance(a, b, criteria);
     const s = groupSpread([a, b], criteria);
     s.points.forEach((p, i) => {
+      // Each spread names where it was taken, for reports.
+      expect(p.vaVolts).toBe(criteria.points[i].vaVolts);
+      expect(p.vg2Volts).toBe(criteria.points[i].vg2Volts);
       expect(p.iaSpreadPercent).toBeCloseTo(d.points[i].iaPercent!, 9);
       expect(p.gmSpreadPercent).toBeCloseTo(d.points[i].gmPercent, 9);
     });
