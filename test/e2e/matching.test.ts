@@ -72,7 +72,8 @@ describe('matching, end to end', () => {
   it('groups the EL34 stock into quads and overlays the curves of the chosen one', async () => {
     const page = await browser.newPage({ viewport: { width: 1440, height: 1000 } });
     await signIn(page, 'tech');
-    await page.goto(`${stack.url}/matching`);
+    await page.getByRole('link', { name: 'Matching' }).click();
+    await page.waitForURL('**/matching');
     await page.getByRole('combobox', { name: 'Valve type' }).click({ force: true });
     await page.getByRole('option', { name: /^EL34/ }).click();
     // The idle point comes from the type's published operating point.
@@ -147,7 +148,10 @@ describe('matching, end to end', () => {
     expect(setUrl).not.toBe('');
     const page = await browser.newPage({ viewport: { width: 1440, height: 1000 } });
     await signIn(page, 'tech');
-    await page.goto(setUrl);
+    // The set is on the list of sets, newest first.
+    await page.getByRole('link', { name: 'Match sets' }).click();
+    await page.getByRole('row', { name: `Open set ${setCode}` }).click();
+    await page.waitForURL(setUrl);
     await page.getByRole('button', { name: 'Send report' }).click();
     const dialog = page.getByRole('dialog');
     await dialog.getByLabel('Buyer’s e-mail').fill(BUYER);

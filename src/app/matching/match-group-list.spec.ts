@@ -88,6 +88,16 @@ describe('MatchGroupList', () => {
     ]);
   });
 
+  it("places a point by the hub's own Va and Vg2 where the criteria give none", async () => {
+    const run = matchRun({ criteria: { valveType: 'EL34', groupSize: 4 } });
+    run.groups[0].points = [
+      { ...run.groups[0].points[0], label: 'typical', vaVolts: 250, vg2Volts: 250 },
+    ];
+    await render(run);
+    const first = element().querySelector('li.group tbody tr td')!;
+    expect(text(first)).toBe('typical Va 250 V, Vg1 -13.5 V, Vg2 250 V');
+  });
+
   it('names the valves left over with the reason', async () => {
     await render(matchRun());
     const item = element().querySelector('.left-over li')!;

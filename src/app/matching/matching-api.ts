@@ -73,6 +73,10 @@ export interface PointSpread {
   label: string;
   section: number;
   kind: 'fixed-bias' | 'equal-current';
+  /** Anode voltage of the point, V (runs kept before the hub gave it have none). */
+  vaVolts?: number;
+  /** Screen voltage of the point, V (null for triodes; absent on older runs). */
+  vg2Volts?: number | null;
   iaMeanMilliamps: number;
   /** null at equal-current points, where Ia agrees by design. */
   iaSpreadPercent: number | null;

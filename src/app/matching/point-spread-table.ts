@@ -24,7 +24,7 @@ import type { PointSpread } from './matching-api';
           <tr>
             <td>
               {{ sectioned() ? p.label + ', section ' + p.section : p.label }}
-              @if (conditions().get(p.label); as where) {
+              @if (where(p); as where) {
                 <span class="where">{{ where }}</span>
               }
             </td>
@@ -98,6 +98,16 @@ export class PointSpreadTable {
 
   protected readonly percent = percentText;
   protected readonly figure = figureText;
+  /** Where a point lies: from the criteria, else from the point's own Va and Vg2. */
+  protected where(p: PointSpread): string {
+    const given = this.conditions().get(p.label);
+    if (given) return given;
+    if (p.vaVolts === undefined) return '';
+    const vg1 = p.kind === 'fixed-bias' ? `, Vg1 ${figureText(p.vg1MeanVolts)} V` : '';
+    const vg2 = typeof p.vg2Volts === 'number' ? `, Vg2 ${p.vg2Volts} V` : '';
+    return `Va ${p.vaVolts} V${vg1}${vg2}`;
+  }
+
   /** The Vg1 column is shown only where a point takes each valve at its own Vg1. */
   protected readonly equalCurrent = computed(() =>
     this.points().some((p) => p.kind === 'equal-current'),
