@@ -150,15 +150,19 @@ describe('NewTypeDialog', () => {
         error: {
           code: 'validation_failed',
           message: 'The type has problems.',
-          fields: { 'operatingPoints.0.vaVolts': 'above Va max 300 V' },
+          fields: {
+            'operatingPoints.0.vaVolts': 'above Va max 300 V',
+            'ratings.paMaxWatts': 'too small',
+          },
         },
       },
       { status: 400, statusText: 'Bad Request' },
     );
     await fixture.whenStable();
     const alert = element().querySelector('[role=alert]')!.textContent!;
-    expect(alert).toContain('The type has problems.');
-    expect(alert).toContain('operatingPoints.0.vaVolts: above Va max 300 V');
+    expect(alert).toContain('The type was not added:');
+    expect(alert).toContain('Reference point Va: above Va max 300 V');
+    expect(alert).toContain('Pa max: too small');
     expect(close).not.toHaveBeenCalled();
   });
 });

@@ -10,7 +10,13 @@ import { MatSelectModule } from '@angular/material/select';
 import { map, startWith } from 'rxjs';
 import { hasScreen, type ValveClass } from '../../../shared/catalog/valve-types';
 import { apiErrorBody, apiErrorMessage } from '../core/api-error-message';
-import { buildNewTypeForm, CLASS_LABELS, newTypeBody, newTypeProblems } from './new-type-form';
+import {
+  buildNewTypeForm,
+  CLASS_LABELS,
+  fieldLabel,
+  newTypeBody,
+  newTypeProblems,
+} from './new-type-form';
 import { TypesApi, type TypeView } from './types-api';
 
 /** Number fields of a section: control name, label and unit. */
@@ -42,7 +48,7 @@ export class NewTypeDialog {
   protected readonly classes = Object.entries(CLASS_LABELS) as [ValveClass, string][];
   protected readonly saving = signal(false);
   protected readonly error = signal<string | null>(null);
-  /** The hub's word on each field it refused, e.g. "operatingPoints.0.vaVolts: above Va max". */
+  /** The hub's word on each field it refused, e.g. "Reference point Va: above Va max 300 V". */
   protected readonly fieldErrors = signal<string[]>([]);
 
   private readonly values = toSignal(
@@ -94,9 +100,13 @@ export class NewTypeDialog {
       next: (type) => this.ref.close(type),
       error: (err: unknown) => {
         this.saving.set(false);
-        this.error.set(apiErrorMessage(err, 'The type was not added.'));
-        const fields = apiErrorBody(err)?.fields ?? {};
-        this.fieldErrors.set(Object.entries(fields).map(([path, why]) => `${path}: ${why}`));
+        const fields = Object.entries(apiErrorBody(err)?.fields ?? {});
+        this.error.set(
+          fields.length
+            ? 'The type was not added:'
+            : apiErrorMessage(err, 'The type was not added.'),
+        );
+        this.fieldErrors.set(fields.map(([path, why]) => `${fieldLabel(path)}: ${why}`));
       },
     });
   }

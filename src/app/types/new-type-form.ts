@@ -217,3 +217,51 @@ export function newTypeBody(form: NewTypeGroup): NewTypeBody {
     notes: text(v.notes),
   };
 }
+
+const FIELD_WORDS: Record<string, string> = {
+  designation: 'Designation',
+  equivalents: 'Equivalents',
+  valveClass: 'Class',
+  base: 'Base',
+  sections: 'Sections',
+  heaterVolts: 'Heater voltage',
+  heaterAmps: 'Heater current',
+  vaVolts: 'Va',
+  vg2Volts: 'Vg2',
+  vg1Volts: 'Vg1',
+  iaMilliamps: 'Ia',
+  ig2Milliamps: 'Ig2',
+  gmMicrosiemens: 'gm',
+  raKiloohms: 'ra',
+  mu: 'mu',
+  source: 'source',
+  confidence: 'confidence',
+  vaMaxVolts: 'Va max',
+  vg2MaxVolts: 'Vg2 max',
+  paMaxWatts: 'Pa max',
+  pg2MaxWatts: 'Pg2 max',
+  ikMaxMilliamps: 'Ik max',
+  vhkMaxVolts: 'Vhk max',
+  notes: 'Notes',
+};
+
+/**
+ * The form's name for a field the hub refused, e.g. "operatingPoints.0.vaVolts" is
+ * "Reference point Va" and "ratings.paMaxWatts" is "Pa max".
+ */
+export function fieldLabel(path: string): string {
+  const parts = path.split('.');
+  const word = (name: string | undefined) => (name && FIELD_WORDS[name]) || name || '';
+  if (parts[0] === 'operatingPoints') return `Reference point ${word(parts[2])}`.trim();
+  if (parts[0] === 'ratings') {
+    return parts[1] === 'source' || parts[1] === 'confidence'
+      ? `Ratings ${word(parts[1])}`
+      : word(parts[1]);
+  }
+  if (parts[0] === 'model') {
+    return parts[1] === 'params'
+      ? `Model ${(parts[2] ?? '').toUpperCase()}`
+      : `Model ${parts[1] ?? ''}`.trim();
+  }
+  return word(parts[0]);
+}

@@ -85,6 +85,9 @@ const ENDINGS: Record<QuickTestSummary['status'], string> = {
     .muted {
       color: var(--mat-sys-on-surface-variant);
     }
+    a {
+      color: var(--mat-sys-primary);
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
