@@ -18,6 +18,7 @@ const sweepPlan = z.object({
   iaTripMilliamps: z.number(),
   warmupSeconds: z.number(),
   settleMs: z.number(),
+  section: z.union([z.literal(1), z.literal(2)]).optional(),
 });
 
 const volts = z.number();

@@ -4,7 +4,12 @@ import {
   readingTrips,
   TRIP_MARGIN,
 } from '../shared/domain/plan-check';
-import type { SweepEndReason, SweepPlan, SweepPoint } from '../shared/domain/sweep';
+import {
+  sectionOf,
+  type SweepEndReason,
+  type SweepPlan,
+  type SweepPoint,
+} from '../shared/domain/sweep';
 import type { BenchDeviceStatus, BridgeToHub, HubToBridge } from '../shared/hub/messages';
 import { num, type DeviceMessage } from '../shared/protocol/messages';
 import type { DeviceLink } from './device-link';
@@ -241,6 +246,13 @@ export class SweepControl {
     const caps = device.caps;
     if (!device.ready || !caps) {
       this.refuse(sweepId, 'the tracer is not connected');
+      return;
+    }
+    if (sectionOf(plan) === 2 && !device.extensions?.features.includes('section-select')) {
+      this.refuse(
+        sweepId,
+        'the plan measures section 2, and the tracer has no section switch (SEC in its EXT answer)',
+      );
       return;
     }
     const problems = checkPlan(plan, limitsFromDevice(caps));

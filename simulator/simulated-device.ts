@@ -41,7 +41,7 @@ export const SHORT_MAX_VOLTS = 20;
 
 /** Optional functions the simulated tracer announces in its EXT answer. */
 export const SIMULATED_EXTENSIONS: DeviceExtensions = {
-  features: ['leakage', 'emission', 'grid-current'],
+  features: ['leakage', 'emission', 'grid-current', 'section-select'],
   gridFeedKiloohms: GRID_FEED_OHMS / 1000,
   leakageMaxVolts: 200,
 };

@@ -1,5 +1,10 @@
 import { readingEndsCurve, readingTrips } from '../shared/domain/plan-check';
-import { plannedPointCount, type SweepEndReason, type SweepPlan } from '../shared/domain/sweep';
+import {
+  plannedPointCount,
+  sectionOf,
+  type SweepEndReason,
+  type SweepPlan,
+} from '../shared/domain/sweep';
 import type { DeviceErrorCode, DeviceMessage } from '../shared/protocol';
 import { CURRENT_RANGES_MILLIAMPS } from './current-adc';
 import type { SimClock, SimTimer } from './sim-clock';
@@ -119,7 +124,7 @@ export class SweepRun {
     const { plan } = this;
     const { vaVolts, vg1Volts } = setting;
     const atMs = this.nextDueMs;
-    const r = this.socket.read(vaVolts, vg1Volts, plan.vg2Volts, atMs);
+    const r = this.socket.read(vaVolts, vg1Volts, plan.vg2Volts, atMs, sectionOf(plan) - 1);
     this.host.reading({
       sweepId: this.id,
       vaVolts,

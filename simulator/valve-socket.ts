@@ -151,11 +151,22 @@ export class ValveSocket {
     return this.fault === 'low-emission' ? e * LOW_EMISSION_FACTOR : e;
   }
 
-  /** Reads section 1 at the given electrode voltages (V) at `atMs`. */
-  read(vaVolts: number, vg1Volts: number, vg2Volts: number, atMs: number): SocketReading {
+  /**
+   * Reads a section (0-based; 0 = the data sheet's section 1) at the given electrode voltages
+   * (V) at `atMs`. A section the valve does not have is an empty socket position: no current.
+   */
+  read(
+    vaVolts: number,
+    vg1Volts: number,
+    vg2Volts: number,
+    atMs: number,
+    section = 0,
+  ): SocketReading {
     const emission = this.emissionAt(atMs);
+    const present = section < this.current.sections.length;
     const at = (vg1: number) => {
-      const c = this.current.currents(0, vaVolts, vg1, vg2Volts);
+      if (!present) return { ia: 0, ig2: 0 };
+      const c = this.current.currents(section, vaVolts, vg1, vg2Volts);
       return { ia: c.iaMilliamps * emission, ig2: c.ig2Milliamps * emission };
     };
     let c = at(vg1Volts);

@@ -20,14 +20,15 @@ export interface DemoSweep {
 }
 
 /**
- * Runs the type's default anode-family plan on the individual valve "TYPE#SEED" straight on
+ * Runs the type's default anode-family plan (on section 1, or section 2 of a double triode) on
+ * the individual valve "TYPE#SEED" straight on
  * the valve physics (sound cathode, fully warm), with seeded reading noise. Each curve ends at
  * the first reading that reaches the plan's current or dissipation limit, as on the tracer.
  */
-export function demoSweepPoints(valveSpec: string): DemoSweep {
+export function demoSweepPoints(valveSpec: string, section: 1 | 2 = 1): DemoSweep {
   const valve = SimulatedValve.fromSpec(valveSpec);
-  const plan = defaultPlan(valve.type);
-  const noise = SeededRandom.fromText(`${valve.label}/demo-noise`);
+  const plan = section === 2 ? { ...defaultPlan(valve.type), section } : defaultPlan(valve.type);
+  const noise = SeededRandom.fromText(`${valve.label}/demo-noise${section === 2 ? '/2' : ''}`);
   const noisy = (milliamps: number) => {
     const sd = NOISE_RELATIVE * milliamps + NOISE_FLOOR_MILLIAMPS;
     return Math.max(0, Math.round((milliamps + noise.gaussian() * sd) * 1e4) / 1e4);
@@ -36,7 +37,7 @@ export function demoSweepPoints(valveSpec: string): DemoSweep {
   const steps = anodeSteps(plan);
   plan.vg1Volts.forEach((vg1Volts, curve) => {
     for (const vaVolts of steps) {
-      const c = valve.currents(0, vaVolts, vg1Volts, plan.vg2Volts);
+      const c = valve.currents(section - 1, vaVolts, vg1Volts, plan.vg2Volts);
       const iaMilliamps = noisy(c.iaMilliamps);
       const ig2Milliamps = valve.hasScreen && plan.vg2Volts > 0 ? noisy(c.ig2Milliamps) : 0;
       points.push({

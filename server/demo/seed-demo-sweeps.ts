@@ -57,19 +57,25 @@ const MAX_TRIES = 200;
  * leave a record without figures; the demo prefers the next individual that reaches the point,
  * so that every demo valve has a grade, and keeps the first complete one where none does.
  */
-function completeSweep(index: number): DemoSweep | null {
+function completeSweep(index: number): { spec: string; sweep: DemoSweep } | null {
   const [type, seedText] = demoSweepValveSpec(index).split('#');
   const reference = findValveType(type)?.operatingPoints[0];
-  let fallback: DemoSweep | null = null;
+  let fallback: { spec: string; sweep: DemoSweep } | null = null;
   for (let k = 0; k < MAX_TRIES; k++) {
-    const sweep = demoSweepPoints(`${type}#${Number(seedText) + k * SEED_STRIDE}`);
+    const spec = `${type}#${Number(seedText) + k * SEED_STRIDE}`;
+    const sweep = demoSweepPoints(spec);
     if (sweep.points.some((p) => readingTrips(sweep.plan, p.vaVolts, p.iaMilliamps))) continue;
-    if (!reference) return sweep;
-    if (computeSweepFigures(sweep.plan, sweep.points, reference).refusal === null) return sweep;
-    fallback ??= sweep;
+    if (!reference) return { spec, sweep };
+    if (computeSweepFigures(sweep.plan, sweep.points, reference).refusal === null) {
+      return { spec, sweep };
+    }
+    fallback ??= { spec, sweep };
   }
   return fallback;
 }
+
+/** Minutes between a double triode's section-1 and section-2 sweeps (a socket switch apart). */
+const SECTION_2_AFTER_MINUTES = 6;
 
 /**
  * Gives each demo valve of a type the simulator models one complete anode-family sweep of its
@@ -100,32 +106,42 @@ export async function seedDemoSweeps(db: HubDb, nowMs = Date.now()): Promise<num
         .where('label', '=', stock.label)
         .executeTakeFirst();
       if (!valve) continue;
-      const sweep = completeSweep(i);
-      if (!sweep) continue;
-      const { plan, points } = sweep;
-      const startedMs =
+      const found = completeSweep(i);
+      if (!found) continue;
+      const type = findValveType(stock.type)!;
+      const baseMs =
         nowMs - (DEMO_STOCK.length - i) * DAYS_BETWEEN_SWEEPS * 86_400_000 + (i % 5) * 3_600_000;
-      const createdMs = startedMs - 5_000;
-      const endedMs = startedMs + plan.warmupSeconds * 1000 + points.length * READING_MS;
-      const sweepId = await insertSweep(trx, {
-        bench_id: bench.id,
-        valve_type: stock.type,
-        valve_label: stock.label,
-        plan_json: JSON.stringify(plan),
-        operator_id: tech.id,
-        status: 'complete',
-        end_reason: 'complete',
-        end_message: null,
-        override_by: null,
-        reported_count: points.length,
-        created_at: new Date(createdMs).toISOString(),
-        started_at: new Date(startedMs).toISOString(),
-        ended_at: new Date(endedMs).toISOString(),
-        valve_id: valve.id,
-      });
-      await insertNewPoints(trx, sweepId, points);
-      await refreshSweepFigures(trx, sweepId);
-      added++;
+      // Double triodes get section 2 swept as well, on the same individual, minutes later.
+      const runs: [DemoSweep, number][] = [[found.sweep, baseMs]];
+      if (type.sections >= 2) {
+        const second = demoSweepPoints(found.spec, 2);
+        if (!second.points.some((p) => readingTrips(second.plan, p.vaVolts, p.iaMilliamps))) {
+          runs.push([second, baseMs + SECTION_2_AFTER_MINUTES * 60_000]);
+        }
+      }
+      for (const [{ plan, points }, startedMs] of runs) {
+        const createdMs = startedMs - 5_000;
+        const endedMs = startedMs + plan.warmupSeconds * 1000 + points.length * READING_MS;
+        const sweepId = await insertSweep(trx, {
+          bench_id: bench.id,
+          valve_type: stock.type,
+          valve_label: stock.label,
+          plan_json: JSON.stringify(plan),
+          operator_id: tech.id,
+          status: 'complete',
+          end_reason: 'complete',
+          end_message: null,
+          override_by: null,
+          reported_count: points.length,
+          created_at: new Date(createdMs).toISOString(),
+          started_at: new Date(startedMs).toISOString(),
+          ended_at: new Date(endedMs).toISOString(),
+          valve_id: valve.id,
+        });
+        await insertNewPoints(trx, sweepId, points);
+        await refreshSweepFigures(trx, sweepId);
+        added++;
+      }
     }
     return added;
   });

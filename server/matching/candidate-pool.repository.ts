@@ -13,6 +13,8 @@ export interface PoolValveRow {
   bench_id: number;
   bench_name: string;
   plan_json: string;
+  /** Newest complete anode-family sweep of section 2 (double triodes), or null. */
+  section2_sweep_id: number | null;
 }
 
 /** Which valves a run considers; dates bound the sweep's start (ISO 8601). */
@@ -27,8 +29,8 @@ export interface PoolFilter {
 }
 
 /**
- * Valves of a type with the newest complete anode-family sweep each (within the dates); valves
- * without one are not returned.
+ * Valves of a type with the newest complete anode-family sweep of section 1 each (within the
+ * dates), and that of section 2 where there is one; valves without the first are not returned.
  */
 export async function listPoolValves(db: HubDb, f: PoolFilter): Promise<PoolValveRow[]> {
   let inner = db
@@ -36,15 +38,19 @@ export async function listPoolValves(db: HubDb, f: PoolFilter): Promise<PoolValv
     .innerJoin('valve_types as t', 't.id', 'v.valve_type_id')
     .select(['v.id as valve_id', 'v.label', 'v.status', 't.designation as type_designation'])
     .select((eb) => {
-      let s = eb
-        .selectFrom('sweeps as s')
-        .select('s.id')
-        .whereRef('s.valve_id', '=', 'v.id')
-        .where('s.status', '=', 'complete')
-        .where(sql<boolean>`json_extract(s.plan_json, '$.kind') = 'anode'`);
-      if (f.dateFrom) s = s.where('s.created_at', '>=', f.dateFrom);
-      if (f.dateTo) s = s.where('s.created_at', '<=', f.dateTo);
-      return s.orderBy('s.created_at', 'desc').orderBy('s.id', 'desc').limit(1).as('sweep_id');
+      const newest = (section: 1 | 2) => {
+        let s = eb
+          .selectFrom('sweeps as s')
+          .select('s.id')
+          .whereRef('s.valve_id', '=', 'v.id')
+          .where('s.status', '=', 'complete')
+          .where(sql<boolean>`json_extract(s.plan_json, '$.kind') = 'anode'`)
+          .where(sql<boolean>`coalesce(json_extract(s.plan_json, '$.section'), 1) = ${section}`);
+        if (f.dateFrom) s = s.where('s.created_at', '>=', f.dateFrom);
+        if (f.dateTo) s = s.where('s.created_at', '<=', f.dateTo);
+        return s.orderBy('s.created_at', 'desc').orderBy('s.id', 'desc').limit(1);
+      };
+      return [newest(1).as('sweep_id'), newest(2).as('section2_sweep_id')];
     })
     .where('v.valve_type_id', '=', f.typeId);
   if (f.statuses.length) inner = inner.where('v.status', 'in', [...f.statuses]);
@@ -63,6 +69,7 @@ export async function listPoolValves(db: HubDb, f: PoolFilter): Promise<PoolValv
       'ls.bench_id',
       'b.name as bench_name',
       'ls.plan_json',
+      'x.section2_sweep_id',
     ])
     .orderBy('x.valve_id')
     .execute();

@@ -13,6 +13,8 @@ import type { MatchCriteriaInput } from './matching.schemas';
 export interface PoolValve {
   row: PoolValveRow;
   family: SweepPoint[];
+  /** Section 2's family of a double triode, where swept. */
+  section2Family?: SweepPoint[];
 }
 
 /** Which valves to load. */
@@ -42,7 +44,15 @@ export async function loadPool(db: HubDb, r: PoolRequest): Promise<PoolValve[]> 
     rows = rows.filter((row) => r.grades!.includes(grades.get(row.valve_id) ?? 'ungraded'));
   }
   const out: PoolValve[] = [];
-  for (const row of rows) out.push({ row, family: await listPoints(db, row.sweep_id) });
+  for (const row of rows) {
+    const family = await listPoints(db, row.sweep_id);
+    const second = row.section2_sweep_id;
+    out.push(
+      second === null
+        ? { row, family }
+        : { row, family, section2Family: await listPoints(db, second) },
+    );
+  }
   return out;
 }
 
@@ -53,6 +63,7 @@ export function candidatesOf(pool: readonly PoolValve[]): MatchCandidate[] {
     label: p.row.label,
     valveType: p.row.type_designation,
     family: p.family,
+    ...(p.section2Family ? { section2Family: p.section2Family } : {}),
   }));
 }
 

@@ -19,6 +19,10 @@ export const sweepPlanSchema = z.strictObject({
   iaTripMilliamps: z.number().describe('Trip current that ends the sweep, mA'),
   warmupSeconds: z.number().describe('Heater warm-up, s'),
   settleMs: z.number().describe('Settling time before each reading, ms'),
+  section: z
+    .union([z.literal(1), z.literal(2)])
+    .optional()
+    .describe('Section of a double triode the sweep measures (default 1)'),
 }) satisfies z.ZodType<SweepPlan>;
 
 /** Body of POST /api/sweeps. */

@@ -1,6 +1,6 @@
 import type { z } from 'zod';
 import { limitsFromDevice } from '../../shared/domain/plan-check';
-import type { SweepPoint } from '../../shared/domain/sweep';
+import { sectionOf, type SweepPoint } from '../../shared/domain/sweep';
 import type { SweepView } from '../../shared/hub/messages';
 import type { AuditService } from '../audit/audit.service';
 import type { AuthUser } from '../auth/auth-user';
@@ -119,6 +119,9 @@ export function createSweepService(props: SweepServiceProps) {
         ? [{ label: `${type.designation} maximum ratings`, limits: limitsOfType(type) }]
         : [];
       const fields = planProblems(input.plan, input.override ? hard : [...hard, ...soft]);
+      if (sectionOf(input.plan) > (type?.sections ?? 2)) {
+        fields['plan.section'] = `${type!.designation} has one section: there is no section 2`;
+      }
       const overridden = input.override ? planProblems(input.plan, soft) : {};
       if (Object.keys(fields).length > 0) {
         const first = Object.values(fields)[0];

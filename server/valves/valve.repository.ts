@@ -71,8 +71,9 @@ function valvesWithGrade(db: HubDb, t: GradeThresholds) {
 }
 
 /**
- * The valve's newest graded measurement as JSON text {p, fail, source, at}: a sweep with
- * figures at the reference point (p = gradedPercent of its gm and Ia) or a completed quick test
+ * The valve's newest graded measurement as JSON text {p, fail, source, at}: a section-1 sweep
+ * (section 2 of a double triode is matching's concern, as section balance) with figures at the
+ * reference point (p = gradedPercent of its gm and Ia) or a completed quick test
  * (p = its graded figure; fail = its hard fail, if any). A correlated subquery on `v`.
  */
 function newestGradedMeasurement() {
@@ -84,6 +85,7 @@ function newestGradedMeasurement() {
         coalesce(f.gm_percent, f.ia_percent) as p, null as fail
       from sweep_figures f join sweeps s on s.id = f.sweep_id
       where s.valve_id = v.id and f.refusal is null
+        and coalesce(json_extract(s.plan_json, '$.section'), 1) = 1
       union all
       select coalesce(q.ended_at, q.created_at), q.id, 'quick-test', q.grade_percent,
         case when q.grade in (${hardFails}) then q.grade end

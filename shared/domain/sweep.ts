@@ -41,6 +41,16 @@ export interface SweepPlan {
   warmupSeconds: number;
   /** Settling time before each reading, ms. */
   settleMs: number;
+  /**
+   * Section of a multi-section envelope the sweep measures (double triodes: 1 or 2), as the
+   * tracer's section switch connects it; absent means section 1.
+   */
+  section?: 1 | 2;
+}
+
+/** The section a plan measures (1 unless it says 2). */
+export function sectionOf(plan: Pick<SweepPlan, 'section'>): 1 | 2 {
+  return plan.section === 2 ? 2 : 1;
 }
 
 /** One measured point of a sweep. */

@@ -23,7 +23,7 @@ export const ELECTRODE_PAIRS = [
 export type ElectrodePair = (typeof ELECTRODE_PAIRS)[number];
 
 /** Optional tracer functions beyond protocol version 1's core, as announced in EXT. */
-export const CHECK_FEATURES = ['leakage', 'emission', 'grid-current'] as const;
+export const CHECK_FEATURES = ['leakage', 'emission', 'grid-current', 'section-select'] as const;
 
 /** One optional tracer function. */
 export type CheckFeature = (typeof CHECK_FEATURES)[number];

@@ -126,6 +126,7 @@ const FEATURE_CODES: Record<CheckFeature, string> = {
   leakage: 'LKG',
   emission: 'EMI',
   'grid-current': 'GAS',
+  'section-select': 'SEC',
 };
 const FEATURES = Object.fromEntries(CHECK_FEATURES.map((f) => [FEATURE_CODES[f], f])) as Record<
   string,
@@ -175,6 +176,8 @@ export function encodeCommand(c: HostCommand): string {
         num(p.warmupSeconds, 0),
         num(p.settleMs, 0),
         p.vg1Volts.map((v) => num(v, 2)).join(';'),
+        // Section 2 only to a tracer that announced SEC; section 1 keeps the core's 14 fields.
+        ...(p.section === 2 ? ['2'] : []),
       ].join(',');
     }
     case 'abort':
@@ -405,8 +408,9 @@ export function decodeCommand(body: string): HostCommand | null {
         arity(f, 2);
         return { type: 'abort', sweepId: int(f[1]) };
       case 'SWP': {
-        arity(f, 14);
+        if (f.length !== 14 && f.length !== 15) throw new Error('wrong field count');
         if (f[2] !== 'A' && f[2] !== 'T') throw new Error('bad kind');
+        if (f.length === 15 && f[14] !== '1' && f[14] !== '2') throw new Error('bad section');
         const vg1 = f[13].split(';').map(n);
         return {
           type: 'sweep',
@@ -424,6 +428,7 @@ export function decodeCommand(body: string): HostCommand | null {
             warmupSeconds: n(f[11]),
             settleMs: n(f[12]),
             vg1Volts: vg1,
+            ...(f[14] === '2' ? { section: 2 as const } : {}),
           },
         };
       }

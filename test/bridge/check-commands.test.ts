@@ -62,6 +62,30 @@ async function started(b: TestBench, checkId: number, check: CheckPlan): Promise
   await b.hub.waitFor('check-started', (m) => m.checkId === checkId);
 }
 
+describe('bridge and section 2 of a double triode', () => {
+  it('sends a section-2 plan to a tracer with a section switch, and refuses it to one without', async () => {
+    const withSwitch = await ready({
+      tracer: {
+        extensions: { ...EXTENSIONS, features: [...EXTENSIONS.features, 'section-select'] },
+      },
+    });
+    const plan = { ...SAFE_PLAN, section: 2 as const };
+    withSwitch.hub.send({ type: 'start-sweep', sweepId: 31, plan });
+    await withSwitch.hub.waitFor('sweep-started', (m) => m.sweepId === 31);
+    expect(withSwitch.tracer.commands('sweep')[0]).toEqual({ type: 'sweep', sweepId: 31, plan });
+    await withSwitch.close();
+    bench = null;
+
+    const without = await ready();
+    without.hub.send({ type: 'start-sweep', sweepId: 32, plan });
+    const refused = await without.hub.waitFor('sweep-refused', (m) => m.sweepId === 32);
+    expect(refused.message).toContain('no section switch');
+    without.hub.send({ type: 'outputs-off' });
+    await without.tracer.waitFor('off');
+    expect(without.tracer.commands('sweep')).toHaveLength(0);
+  });
+});
+
 describe('bridge checks (quick-test steps)', () => {
   it('asks the tracer for its optional functions and announces them in a repeated hello', async () => {
     const b = await ready();

@@ -90,7 +90,7 @@ describe('SimulatedTracer checks (protocol extensions)', () => {
       {
         type: 'extensions',
         extensions: {
-          features: ['leakage', 'emission', 'grid-current'],
+          features: ['leakage', 'emission', 'grid-current', 'section-select'],
           gridFeedKiloohms: 47,
           leakageMaxVolts: 200,
         },

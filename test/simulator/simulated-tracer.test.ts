@@ -17,7 +17,6 @@ function koren12ax7Milliamps(va: number, vg: number): number {
   return e1 > 0 ? ((2 * Math.pow(e1, ex)) / kg1) * 1000 : 0;
 }
 
-
 function sweepDurationMs(plan: SweepPlan): number {
   return plan.warmupSeconds * 1000 + plannedPointCount(plan) * (plan.settleMs + CONVERSION_MS + 25);
 }
@@ -71,6 +70,29 @@ describe('SimulatedTracer', () => {
     // The model gives about 0.95 mA here (the team's reference sheet, section 2).
     expect(model).toBeCloseTo(0.952, 2);
     expect(Math.abs(point.iaMilliamps - model) / model).toBeLessThan(0.02);
+  });
+
+  it('measures the section the plan names: the two sections of a double triode differ a little', () => {
+    const read = (valve: string, section: 1 | 2) => {
+      const b = manualBench({ valve });
+      const plan = smallTriodePlan({
+        vaStartVolts: 250,
+        vaStopVolts: 250,
+        vg1Volts: [-2],
+        section,
+      });
+      b.send(sweepLine(1, plan));
+      b.run(sweepDurationMs(plan));
+      return b.host.of('point')[0].iaMilliamps;
+    };
+    // Seed 0 is the nominal valve, both sections alike; an individual's sections are a few % apart.
+    expect(read('12AX7#0', 2)).toBeCloseTo(read('12AX7#0', 1), 2);
+    const one = read('12AX7#5', 1);
+    const two = read('12AX7#5', 2);
+    expect(Math.abs(two - one) / one).toBeGreaterThan(0.002);
+    expect(Math.abs(two - one) / one).toBeLessThan(0.15);
+    // A single triode has no section 2: an empty position in the socket draws nothing.
+    expect(read('300B#1', 2)).toBeLessThan(0.01);
   });
 
   it('ends each curve at the first reading at or above the current limit and keeps it', () => {

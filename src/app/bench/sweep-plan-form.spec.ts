@@ -6,6 +6,7 @@ import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import type { HarnessLoader } from '@angular/cdk/testing';
 import { MatAutocompleteHarness } from '@angular/material/autocomplete/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
+import { MatButtonToggleHarness } from '@angular/material/button-toggle/testing';
 import { MatCheckboxHarness } from '@angular/material/checkbox/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
@@ -141,6 +142,24 @@ describe('SweepPlanForm', () => {
     req.flush(sweepView({ id: 12, status: 'pending' }), { status: 201, statusText: 'Created' });
     await clicked;
     expect(started!.id).toBe(12);
+  });
+
+  it('offers section 2 for a double triode only, and posts it in the plan', async () => {
+    await render();
+    await chooseType('EL34');
+    const toggles = () => loader.getAllHarnesses(MatButtonToggleHarness.with({ text: /^[12]$/ }));
+    expect(await toggles()).toHaveLength(0);
+    await chooseType('12AX7');
+    const [, second] = await toggles();
+    await second.check();
+    await (await startButton()).click();
+    const root = TestbedHarnessEnvironment.documentRootLoader(fixture);
+    const confirm = await root.getHarness(MatButtonHarness.with({ text: /Apply voltages/ }));
+    const clicked = confirm.click();
+    const req = await vi.waitFor(() => http.expectOne('/api/sweeps'));
+    expect(req.request.body.plan).toMatchObject({ kind: 'anode', section: 2 });
+    req.flush(sweepView({ id: 13, status: 'pending' }), { status: 201, statusText: 'Created' });
+    await clicked;
   });
 
   it('posts nothing when the confirmation is cancelled', async () => {

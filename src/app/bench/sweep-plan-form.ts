@@ -131,6 +131,7 @@ export class SweepPlanForm {
     iaTripMilliamps: this.fb.control<number | null>(null),
     warmupSeconds: this.fb.control<number | null>(null),
     settleMs: this.fb.control<number | null>(null),
+    section: this.fb.control<1 | 2>(1),
     override: [false],
   });
 
@@ -201,6 +202,7 @@ export class SweepPlanForm {
       iaTripMilliamps: n('iaTripMilliamps'),
       warmupSeconds: n('warmupSeconds'),
       settleMs: n('settleMs'),
+      ...(v.section === 2 && (this.selectedType()?.sections ?? 1) >= 2 ? { section: 2 } : {}),
     };
   });
 
@@ -379,6 +381,7 @@ export class SweepPlanForm {
       iaTripMilliamps: plan.iaTripMilliamps,
       warmupSeconds: plan.warmupSeconds,
       settleMs: plan.settleMs,
+      section: plan.section ?? 1,
     });
   }
 

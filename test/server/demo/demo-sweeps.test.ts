@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { findValveType } from '../../../shared/catalog/valve-types';
 import { readingEndsCurve, readingTrips } from '../../../shared/domain/plan-check';
-import type { SweepPlan } from '../../../shared/domain/sweep';
+import { sectionOf, type SweepPlan } from '../../../shared/domain/sweep';
 import { DEMO_BENCHES } from '../../../server/demo/demo-data';
 import { DEMO_STOCK } from '../../../server/demo/demo-stock';
 import { demoSweepPoints } from '../../../server/demo/demo-sweep-points';
@@ -40,10 +40,17 @@ describe('demo sweeps', () => {
       ])
       .execute();
 
-  it('gives every demo valve of a modelled type one complete sweep on the first bench', async () => {
+  it('gives every demo valve of a modelled type a complete sweep of each section on the first bench', async () => {
     const rows = await sweeps();
     expect(modelled.length).toBeGreaterThan(0);
-    expect(rows.map((r) => r.label).sort()).toEqual(modelled.map((v) => v.label).sort());
+    const sectionsOf = (type: string) => findValveType(type)!.sections;
+    const expected = modelled.flatMap((v) => Array(sectionsOf(v.type)).fill(v.label) as string[]);
+    expect(rows.map((r) => r.label).sort()).toEqual(expected.sort());
+    for (const v of modelled.filter((x) => sectionsOf(x.type) === 2)) {
+      const own = rows.filter((r) => r.label === v.label);
+      const sections = own.map((r) => sectionOf(JSON.parse(r.plan_json) as SweepPlan)).sort();
+      expect(sections, v.label).toEqual([1, 2]);
+    }
     for (const r of rows) {
       expect(r).toMatchObject({
         status: 'complete',
@@ -95,7 +102,7 @@ describe('demo sweeps', () => {
       .selectFrom('sweep_figures')
       .select(['refusal', 'ia_percent'])
       .execute();
-    expect(figures).toHaveLength(modelled.length);
+    expect(figures).toHaveLength(modelled.reduce((n, v) => n + findValveType(v.type)!.sections, 0));
     for (const f of figures) {
       if (f.ia_percent === null) expect(f.refusal).toMatch(/above the measured range/);
     }
@@ -113,6 +120,9 @@ describe('demo sweeps', () => {
       ).body as { groups: { acceptable: boolean; members: { label: string }[] }[] };
     const pairs = await run({ valveType: '12AX7', groupSize: 2 });
     expect(pairs.groups.filter((g) => g.acceptable).length).toBeGreaterThanOrEqual(2);
+    // Both sections of each double triode were swept: matching on both, each against its own.
+    const both = await run({ valveType: '12AX7', groupSize: 2, sections: 'both' });
+    expect(both.groups.length).toBeGreaterThanOrEqual(2);
   });
 
   it('simulates two demo valves of one type as different individuals', () => {

@@ -72,6 +72,17 @@ describe('sweeps API', () => {
     expect(res.body.error.message).toContain('350 V');
   });
 
+  it('refuses section 2 of a single-section type, naming the field', async () => {
+    const plan = { ...smallTriodePlan(), section: 2 };
+    const res = await post(tech, { benchId: 1, plan, valveType: '300B' }).expect(422);
+    expect(res.body.error.fields['plan.section']).toBe(
+      '300B has one section: there is no section 2',
+    );
+    const bad = await post(tech, { benchId: 1, plan: { ...smallTriodePlan(), section: 3 } });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields).toHaveProperty(['plan.section']);
+  });
+
   it('refuses a plan beyond the bench limits an admin set', async () => {
     await hub.api
       .patch('/api/benches/1')

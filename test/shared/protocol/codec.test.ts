@@ -41,7 +41,11 @@ const otherMessage: fc.Arbitrary<DeviceMessage> = fc.oneof(
     highVoltage: fc.boolean(),
     warmupLeftSeconds: fc.nat({ max: 600 }),
   }),
-  fc.record({ type: fc.constant('ack' as const), command: fc.constantFrom('SWP', 'HTR', 'OFF'), sweepId: fc.nat({ max: 1e6 }) }),
+  fc.record({
+    type: fc.constant('ack' as const),
+    command: fc.constantFrom('SWP', 'HTR', 'OFF'),
+    sweepId: fc.nat({ max: 1e6 }),
+  }),
 );
 const checkId = fc.nat({ max: 1e9 });
 const flag = fc.boolean();
@@ -153,7 +157,10 @@ function chunk(text: string, cuts: number[]): string[] {
   return out;
 }
 
-function decodeAll(chunks: (string | Uint8Array)[]): { messages: DeviceMessage[]; decoder: DeviceStreamDecoder } {
+function decodeAll(chunks: (string | Uint8Array)[]): {
+  messages: DeviceMessage[];
+  decoder: DeviceStreamDecoder;
+} {
   const decoder = new DeviceStreamDecoder();
   const messages = chunks.flatMap((c) => decoder.push(c));
   return { messages, decoder };
@@ -196,16 +203,44 @@ describe('wire protocol codec', () => {
     expect(decodeCommand(encodeCommand(command))).toEqual(command);
   });
 
+  it('sends section 2 as a 15th SWP field and keeps section 1 to the core 14', () => {
+    const plan = {
+      kind: 'anode' as const,
+      vaStartVolts: 0,
+      vaStopVolts: 300,
+      vaStepVolts: 10,
+      vg1Volts: [0, -1],
+      vg2Volts: 0,
+      heaterVolts: 12.6,
+      iaMaxMilliamps: 5,
+      paMaxWatts: 0.75,
+      iaTripMilliamps: 7.5,
+      warmupSeconds: 20,
+      settleMs: 2,
+    };
+    const second: HostCommand = { type: 'sweep', sweepId: 18, plan: { ...plan, section: 2 } };
+    expect(encodeCommand(second)).toBe('SWP,18,A,0,300,10,0,12.6,5,0.75,7.5,20,2,0;-1,2');
+    expect(decodeCommand(encodeCommand(second))).toEqual(second);
+    const first = encodeCommand({ type: 'sweep', sweepId: 19, plan: { ...plan, section: 1 } });
+    expect(first.split(',')).toHaveLength(14);
+    expect(decodeCommand(first)).toEqual({ type: 'sweep', sweepId: 19, plan });
+    expect(decodeCommand('SWP,18,A,0,300,10,0,12.6,5,0.75,7.5,20,2,0;-1,3')).toBeNull();
+  });
+
   it('parses a valid stream identically however it is split into chunks', () => {
     fc.assert(
-      fc.property(stream, fc.array(fc.double({ min: 0, max: 1, noNaN: true }), { maxLength: 30 }), (messages, cuts) => {
-        const text = wire(messages);
-        const whole = decodeAll([text]).messages;
-        const split = decodeAll(chunk(text, cuts));
-        expect(whole).toEqual(messages);
-        expect(split.messages).toEqual(messages);
-        expect(droppedCount(split.decoder.reader.stats)).toBe(0);
-      }),
+      fc.property(
+        stream,
+        fc.array(fc.double({ min: 0, max: 1, noNaN: true }), { maxLength: 30 }),
+        (messages, cuts) => {
+          const text = wire(messages);
+          const whole = decodeAll([text]).messages;
+          const split = decodeAll(chunk(text, cuts));
+          expect(whole).toEqual(messages);
+          expect(split.messages).toEqual(messages);
+          expect(droppedCount(split.decoder.reader.stats)).toBe(0);
+        },
+      ),
     );
   });
 
@@ -219,17 +254,25 @@ describe('wire protocol codec', () => {
     fc.assert(
       fc.property(stream, fc.nat(), fc.integer({ min: 1, max: 255 }), (messages, where, flip) => {
         const text = wire(messages);
-        const lines = text.split('\n').slice(0, -1).map((l) => l + '\n');
+        const lines = text
+          .split('\n')
+          .slice(0, -1)
+          .map((l) => l + '\n');
         const target = where % lines.length;
         const line = lines[target];
         // Corrupt one byte of the frame itself ('$' .. last checksum digit), not the line end.
         const pos = where % (line.length - 2);
-        const corrupted = line.slice(0, pos) + String.fromCharCode(line.charCodeAt(pos) ^ flip) + line.slice(pos + 1);
+        const corrupted =
+          line.slice(0, pos) +
+          String.fromCharCode(line.charCodeAt(pos) ^ flip) +
+          line.slice(pos + 1);
         lines[target] = corrupted;
         const { messages: got, decoder } = decodeAll(lines);
         const expected = messages.filter((_, i) => i !== target);
         expect(got).toEqual(expected);
-        expect(droppedCount(decoder.reader.stats) + decoder.reader.stats.noiseBytes).toBeGreaterThan(0);
+        expect(
+          droppedCount(decoder.reader.stats) + decoder.reader.stats.noiseBytes,
+        ).toBeGreaterThan(0);
       }),
       { numRuns: 300 },
     );
@@ -237,22 +280,27 @@ describe('wire protocol codec', () => {
 
   it('rejects and counts a truncated line without losing the line after it', () => {
     fc.assert(
-      fc.property(stream, fc.nat(), fc.double({ min: 0, max: 0.999, noNaN: true }), (messages, where, keep) => {
-        const lines = messages.map((m) => frame(encodeDeviceMessage(m)));
-        const target = where % lines.length;
-        const full = lines[target];
-        // Cut the frame short anywhere before its line end: the rest of it never arrives.
-        lines[target] = full.slice(0, 1 + Math.floor(keep * (full.length - 3)));
-        const { messages: got, decoder } = decodeAll([lines.join('')]);
-        const expected = messages.filter((_, i) => i !== target);
-        if (target === lines.length - 1) {
-          // A frame cut at the very end of the stream is still waiting for its end: not emitted.
-          expect(got).toEqual(expected);
-        } else {
-          expect(got).toEqual(expected);
-          expect(decoder.reader.stats.truncated).toBe(1);
-        }
-      }),
+      fc.property(
+        stream,
+        fc.nat(),
+        fc.double({ min: 0, max: 0.999, noNaN: true }),
+        (messages, where, keep) => {
+          const lines = messages.map((m) => frame(encodeDeviceMessage(m)));
+          const target = where % lines.length;
+          const full = lines[target];
+          // Cut the frame short anywhere before its line end: the rest of it never arrives.
+          lines[target] = full.slice(0, 1 + Math.floor(keep * (full.length - 3)));
+          const { messages: got, decoder } = decodeAll([lines.join('')]);
+          const expected = messages.filter((_, i) => i !== target);
+          if (target === lines.length - 1) {
+            // A frame cut at the very end of the stream is still waiting for its end: not emitted.
+            expect(got).toEqual(expected);
+          } else {
+            expect(got).toEqual(expected);
+            expect(decoder.reader.stats.truncated).toBe(1);
+          }
+        },
+      ),
       { numRuns: 300 },
     );
   });
@@ -268,7 +316,9 @@ describe('wire protocol codec', () => {
 
   it('counts a checksum-valid line that is not a known message as malformed', () => {
     const decoder = new DeviceStreamDecoder();
-    expect(decoder.push(frame('PT,1,2,3') + frame('XYZ,1') + frame('PT,1,2,0,10,-1,0,abc,0'))).toEqual([]);
+    expect(
+      decoder.push(frame('PT,1,2,3') + frame('XYZ,1') + frame('PT,1,2,0,10,-1,0,abc,0')),
+    ).toEqual([]);
     expect(decoder.reader.stats.malformed).toBe(3);
   });
 
