@@ -137,6 +137,8 @@ export async function startStack(options: StackOptions = {}): Promise<RunningSta
     env: {
       PORT: String(hubPort),
       DATA_DIR: dataDir,
+      // A stack on a free port (tests) takes a free mail port too, so stacks never collide.
+      ...(hubPort === 0 && !process.env.DEV_SMTP_PORT ? { DEV_SMTP_PORT: '0' } : {}),
       ...options.hubEnv,
     },
     ready: /hub listening on (http:\/\/\S+)/,

@@ -233,9 +233,27 @@ export function createValveService({ db, audit, photoFiles }: ValveServiceProps)
       return after;
     },
 
-    /** Deletes a valve and its photos; its sweeps stay, taken off the record. */
+    /**
+     * Deletes a valve and its photos; its sweeps stay, taken off the record. A member of a
+     * match set is refused (409, naming the sets): the set's report stands on it.
+     */
     async remove(id: number, user: AuthUser): Promise<void> {
       const before = toValveView(await requireRecord(id));
+      const sets = await db
+        .selectFrom('match_set_members as m')
+        .innerJoin('match_sets as s', 's.id', 'm.match_set_id')
+        .select(['s.code', 's.status'])
+        .where('m.valve_id', '=', id)
+        .orderBy('s.id')
+        .execute();
+      if (sets.length) {
+        const list = sets.map((x) => `${x.code} (${x.status})`).join(', ');
+        throw new HttpError(
+          409,
+          'valve_in_match_set',
+          `${before.label} is a member of match set ${list}; its report stands on this record`,
+        );
+      }
       const files = await photoFiles.ofValve(id);
       await deleteValve(db, id);
       await photoFiles.remove(files);

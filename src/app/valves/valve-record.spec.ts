@@ -70,9 +70,18 @@ describe('ValveRecord', () => {
       curves: [],
     });
     await fixture.whenStable();
+    answerPartners();
+  }
+
+  /** The partner panel asks for the valve's partners; this record has none in stock. */
+  function answerPartners(): void {
+    for (const req of http.match((r) => r.url === '/api/valves/7/partners')) {
+      req.flush({ valveId: 7, criteria: {}, partners: [], metricDescription: '' });
+    }
   }
 
   afterEach(() => {
+    answerPartners();
     http.verify();
     localStorage.clear();
   });
@@ -115,6 +124,13 @@ describe('ValveRecord', () => {
     expect(chart.getAttribute('aria-label')).toBe(
       'Trend of gm and Ia over 2 sweeps and 1 quick test; newest gm 1.52 mA/V, Ia 0.96 mA',
     );
+  });
+
+  it('looks for partners in stock for this valve', async () => {
+    await render('viewer');
+    const panel = element().querySelector('app-partner-panel');
+    expect(panel).not.toBeNull();
+    expect(panel!.closest('section')!.textContent).toContain('Partners in stock');
   });
 
   it('lists the sweeps newest first with links to them', async () => {

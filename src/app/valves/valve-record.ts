@@ -21,6 +21,7 @@ import { catchError, filter, of, switchMap } from 'rxjs';
 import type { GradeThresholds } from '../../../shared/grading/grade-thresholds';
 import { apiErrorMessage } from '../core/api-error-message';
 import { Auth } from '../core/auth';
+import { PartnerPanel } from '../matching/partner-panel';
 import { SweepStatusChip } from '../sweeps/sweep-status-chip';
 import { typeFor } from '../sweeps/sweep-nominal';
 import { TypesApi } from '../types/types-api';
@@ -47,6 +48,7 @@ import { ValvesApi, type ValveDetail } from './valves-api';
     DatePipe,
     MatButtonModule,
     MatIconModule,
+    PartnerPanel,
     ReactiveFormsModule,
     RouterLink,
     SweepStatusChip,

@@ -354,6 +354,13 @@ describe('matching runs and match sets', () => {
       .expect(409);
     expect(again.body.error.fields).toEqual({ [`valve.${planted[2]}`]: 'sold' });
   });
+
+  it('refuses to delete the record of a set member, naming the set, and keeps it', async () => {
+    const res = await as(admin).delete(`/api/valves/${planted[2]}`).expect(409);
+    expect(res.body.error.code).toBe('valve_in_match_set');
+    expect(res.body.error.message).toMatch(/member of match set .*MS-\d+ \(sold\)/);
+    await as(viewer).get(`/api/valves/${planted[2]}`).expect(200);
+  });
 });
 
 /** A request whose answer body is kept as a Buffer. */
