@@ -48,6 +48,8 @@ describe('GradeSettings', () => {
     expect(text).toContain('strong from 85 %');
     expect(text).toContain('data-sheet values are averages');
     expect(text).toContain('60-70 % of nominal is usually replaced');
+    expect(text).toContain('graded by its gm');
+    expect(text).toContain('Ia is shown beside gm but does not grade');
     expect(element().querySelector('form')).toBeNull();
   });
 

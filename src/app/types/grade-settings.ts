@@ -15,10 +15,14 @@ import { TypesApi } from './types-api';
   template: `
     <h2 class="panel-title">Grading against nominal</h2>
     <p>
-      A valve is graded by the lower of its gm and Ia at its type's reference operating point (the
-      first typical point), as a percentage of the data-sheet figure there:
-      <strong>strong</strong> from {{ shown().strongMinPercent }}&nbsp;%, <strong>fair</strong> from
-      {{ shown().fairMinPercent }}&nbsp;%, <strong>weak</strong> below.
+      A valve is graded by its gm at its type's reference operating point (the first typical
+      point), as a percentage of the data-sheet figure there: <strong>strong</strong> from
+      {{ shown().strongMinPercent }}&nbsp;%, <strong>fair</strong> from
+      {{ shown().fairMinPercent }}&nbsp;%, <strong>weak</strong> below. Its newest sweep or quick
+      test decides; a fault a quick test finds (short, leakage, gas, worn cathode, open heater)
+      fails it whatever its gm. Ia is shown beside gm but does not grade: data sheets and the
+      published models disagree on Ia by up to 20 % at the same conditions, and gm is what falls
+      as a cathode wears (common practice). Where a type publishes no gm, Ia grades instead.
     </p>
     <p class="muted">
       The defaults ({{ defaults.strongMinPercent }} % and {{ defaults.fairMinPercent }} %) follow
