@@ -1,32 +1,12 @@
-import { existsSync } from 'node:fs';
-import { mkdtemp, readFile, rm } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { chromium, type Browser, type Locator, type Page } from 'playwright-core';
+import { readFile } from 'node:fs/promises';
+import type { Browser, Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_USERS } from '../../server/demo/demo-data';
-import { startStack, type RunningStack } from '../../server/stack';
+import { demoPassword, openE2eSession, type E2eSession } from './e2e-session';
+import type { RunningStack } from '../../server/stack';
 import { defaultPlan, findValveType } from '../../shared/catalog/valve-types';
 
 // The analysis on a saved sweep, in the real product: hub, simulated tracers and bridges as
 // processes, the built app in Chromium. `npm run test:e2e` builds the app first.
-const APP_INDEX = join(process.cwd(), 'dist/emberline/browser/index.html');
-
-const CHROMIUM_ARGS = [
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-  '--no-first-run',
-];
-
-function password(username: string): string {
-  const user = DEMO_USERS.find((u) => u.username === username);
-  if (!user) throw new Error(`no demo user ${username}`);
-  return user.password;
-}
-
 /** Resolves once `check` holds; rejects naming `what` after `timeoutMs`. */
 async function until(what: string, check: () => Promise<boolean>, timeoutMs = 30_000) {
   const deadline = Date.now() + timeoutMs;
@@ -46,8 +26,7 @@ function firstNumber(text: string | null): number {
 describe('the analysis of a saved sweep, end to end', () => {
   let stack: RunningStack;
   let browser: Browser;
-  let dataDir: string;
-  const logs: string[] = [];
+  let session: E2eSession;
   let sweepId = 0;
 
   async function api<T>(path: string, token: string | null, body?: unknown): Promise<T> {
@@ -63,31 +42,21 @@ describe('the analysis of a saved sweep, end to end', () => {
     return (await res.json()) as T;
   }
 
-  async function signIn(page: Page, username: string): Promise<void> {
-    await page.goto(`${stack.url}/sign-in`);
-    await page.getByLabel('User name').fill(username);
-    await page.getByLabel('Password').fill(password(username));
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL('**/bench');
-  }
+  const signIn = (page: Page, username: string) => session.signIn(page, username);
 
   /** The value text of a figure tile in a region, e.g. gm in the operating-point panel. */
   const tile = (region: Locator, figure: string) => region.locator(`[data-figure="${figure}"]`);
 
   beforeAll(async () => {
-    if (!existsSync(APP_INDEX)) {
-      throw new Error(`${APP_INDEX} is missing: run "npx ng build" (npm run test:e2e does) first`);
-    }
-    dataDir = await mkdtemp(join(tmpdir(), 'emberline-e2e-analysis-'));
     // Ten times real time: the heater's 20 s warm-up takes 2 s, and the cathode is hot when the
     // sweep measures (a short warm-up gives curves of a cold cathode, which is right but useless).
-    stack = await startStack({ port: 0, dataDir, speed: 10, log: (line) => logs.push(line) });
-    browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+    session = await openE2eSession('analysis', { speed: 10 });
+    ({ stack, browser } = session);
 
     // A 12AX7 family on the simulated Bench A, run over REST as a script would.
     const { token } = await api<{ token: string }>('/api/auth/login', null, {
       username: 'tech',
-      password: password('tech'),
+      password: demoPassword('tech'),
     });
     const benches = await api<{ id: number; name: string }[]>('/api/benches', token);
     const benchA = benches.find((b) => b.name === 'Bench A');
@@ -112,12 +81,7 @@ describe('the analysis of a saved sweep, end to end', () => {
     );
   });
 
-  afterAll(async () => {
-    await browser?.close();
-    await stack?.stop();
-    if (dataDir) await rm(dataDir, { recursive: true, force: true });
-    if (process.env.E2E_LOGS) console.log(logs.join('\n'));
-  });
+  afterAll(() => session?.close());
 
   it('reads gm, ra and mu at the pointer and at a placed operating point', async () => {
     const page = await browser.newPage({ viewport: { width: 1440, height: 1000 } });

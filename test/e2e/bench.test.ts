@@ -1,63 +1,25 @@
-import { existsSync } from 'node:fs';
-import { mkdtemp, readFile, rm } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { chromium, type Browser, type Page } from 'playwright-core';
+import { readFile } from 'node:fs/promises';
+import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_USERS } from '../../server/demo/demo-data';
+import { openE2eSession, type E2eSession } from './e2e-session';
 import { defaultPlan, findValveType } from '../../shared/catalog/valve-types';
-import { startStack, type RunningStack } from '../../server/stack';
 import { CSV_HEADER } from '../../server/sweeps/sweep-export';
 
 // The whole product in real processes (hub, simulated tracers, bridges) and the built app in a
 // real browser. `npm run test:e2e` builds the app first.
-const APP_INDEX = join(process.cwd(), 'dist/emberline/browser/index.html');
-
-const CHROMIUM_ARGS = [
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-  '--no-first-run',
-];
-
-function password(username: string): string {
-  const user = DEMO_USERS.find((u) => u.username === username);
-  if (!user) throw new Error(`no demo user ${username}`);
-  return user.password;
-}
-
 describe('the bench, end to end', () => {
-  let stack: RunningStack;
   let browser: Browser;
-  let dataDir: string;
-  const logs: string[] = [];
+  let session: E2eSession;
   let sweepId = 0;
 
-  async function signIn(page: Page, username: string): Promise<void> {
-    await page.goto(`${stack.url}/sign-in`);
-    await page.getByLabel('User name').fill(username);
-    await page.getByLabel('Password').fill(password(username));
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL('**/bench');
-  }
+  const signIn = (page: Page, username: string) => session.signIn(page, username);
 
   beforeAll(async () => {
-    if (!existsSync(APP_INDEX)) {
-      throw new Error(`${APP_INDEX} is missing: run "npx ng build" (npm run test:e2e does) first`);
-    }
-    dataDir = await mkdtemp(join(tmpdir(), 'emberline-e2e-'));
-    stack = await startStack({ port: 0, dataDir, speed: 1, log: (line) => logs.push(line) });
-    browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+    session = await openE2eSession('bench', { speed: 1 });
+    ({ browser } = session);
   });
 
-  afterAll(async () => {
-    await browser?.close();
-    await stack?.stop();
-    if (dataDir) await rm(dataDir, { recursive: true, force: true });
-    if (process.env.E2E_LOGS) console.log(logs.join('\n'));
-  });
+  afterAll(() => session?.close());
 
   it('lets a technician run a 12AX7 sweep on Bench A and watch its curves arrive', async () => {
     const page = await browser.newPage({ viewport: { width: 1440, height: 900 } });

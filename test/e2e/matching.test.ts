@@ -1,73 +1,30 @@
-import { existsSync } from 'node:fs';
-import { mkdtemp, rm } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { chromium, type Browser, type Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_USERS } from '../../server/demo/demo-data';
-import { startStack, type RunningStack } from '../../server/stack';
+import { openE2eSession, type E2eSession } from './e2e-session';
+import type { RunningStack } from '../../server/stack';
 
 // Matching the demo stock into a quad, reserving it and sending its report, in the built app
 // against the real stack. `npm run test:e2e` builds the app first.
-const APP_INDEX = join(process.cwd(), 'dist/emberline/browser/index.html');
-
-const CHROMIUM_ARGS = [
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-  '--no-first-run',
-];
-
 const BUYER = 'quad.buyer@example.com';
-
-function password(username: string): string {
-  const user = DEMO_USERS.find((u) => u.username === username);
-  if (!user) throw new Error(`no demo user ${username}`);
-  return user.password;
-}
 
 describe('matching, end to end', () => {
   let stack: RunningStack;
   let browser: Browser;
-  let dataDir: string;
-  const logs: string[] = [];
+  let session: E2eSession;
   let setUrl = '';
   let setCode = '';
   let quad: string[] = [];
   let runUrl = '';
 
-  async function signIn(page: Page, username: string): Promise<void> {
-    await page.goto(`${stack.url}/sign-in`);
-    await page.getByLabel('User name').fill(username);
-    await page.getByLabel('Password').fill(password(username));
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL('**/bench');
-  }
+  const signIn = (page: Page, username: string) => session.signIn(page, username);
 
   beforeAll(async () => {
-    if (!existsSync(APP_INDEX)) {
-      throw new Error(`${APP_INDEX} is missing: run "npx ng build" (npm run test:e2e does) first`);
-    }
-    dataDir = await mkdtemp(join(tmpdir(), 'emberline-e2e-'));
-    stack = await startStack({
-      port: 0,
-      dataDir,
-      speed: 1,
-      log: (line) => logs.push(line),
-      // The development mail server on a free port of its own: the outbox shows what it received.
-      hubEnv: { DEV_SMTP_PORT: '0' },
-    });
-    browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+    // The development mail server gets a free port of its own: the outbox shows what it received.
+    session = await openE2eSession('matching', { speed: 1 });
+    ({ stack, browser } = session);
   });
 
-  afterAll(async () => {
-    await browser?.close();
-    await stack?.stop();
-    if (dataDir) await rm(dataDir, { recursive: true, force: true });
-    if (process.env.E2E_LOGS) console.log(logs.join('\n'));
-  });
+  afterAll(() => session?.close());
 
   it('groups the EL34 stock into quads and overlays the curves of the chosen one', async () => {
     const page = await browser.newPage({ viewport: { width: 1440, height: 1000 } });

@@ -1,28 +1,16 @@
-import { existsSync } from 'node:fs';
-import { mkdtemp, rm, writeFile } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
+import { writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
-import { chromium, type Browser, type Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_BENCHES, DEMO_USERS } from '../../server/demo/demo-data';
-import { startStack, type RunningStack } from '../../server/stack';
+import { demoPassword, openE2eSession, type E2eSession } from './e2e-session';
+import { DEMO_BENCHES } from '../../server/demo/demo-data';
+import type { RunningStack } from '../../server/stack';
 import { findValveType } from '../../shared/catalog/valve-types';
 import type { QuickTestView } from '../../shared/hub/messages';
 import { korenTriodeIa, type KorenTriodeParams } from '../../shared/physics/koren';
 
 // Valve records, quick tests and nominal curves in the real product: hub, simulated tracers and
 // bridges as processes, the built app in Chromium. `npm run test:e2e` builds the app first.
-const APP_INDEX = join(process.cwd(), 'dist/emberline/browser/index.html');
-
-const CHROMIUM_ARGS = [
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-  '--no-first-run',
-];
-
 /** Simulated time runs this much faster: the 20 s warm-up and 60 s heater settle take 1 and 3 s. */
 const SPEED = 20;
 
@@ -32,12 +20,6 @@ const TYPE = BENCH_A.valve.split('#')[0];
 const NEW_LABEL = 'E2E-BOX-01';
 /** The nominal curves' source as the admin names it; no spaces, so a wrapped legend still reads. */
 const CURVE_SOURCE = 'E2E-sheet-from-Koren-1996';
-
-function password(username: string): string {
-  const user = DEMO_USERS.find((u) => u.username === username);
-  if (!user) throw new Error(`no demo user ${username}`);
-  return user.password;
-}
 
 /** Resolves with the first defined value of `check`; rejects naming `what` after `timeoutMs`. */
 async function until<T>(what: string, check: () => Promise<T | undefined>, timeoutMs = 30_000) {
@@ -70,15 +52,16 @@ function korenCsv(): { csv: string; curves: number; points: number } {
 describe('valve records, quick tests and nominal curves, end to end', () => {
   let stack: RunningStack;
   let browser: Browser;
+  let session: E2eSession;
   let dataDir: string;
-  const logs: string[] = [];
+  let logs: string[] = [];
   let newValveId = 0;
 
   async function token(username: string): Promise<string> {
     const res = await fetch(`${stack.url}/api/auth/login`, {
       method: 'POST',
       headers: { 'content-type': 'application/json' },
-      body: JSON.stringify({ username, password: password(username) }),
+      body: JSON.stringify({ username, password: demoPassword(username) }),
     });
     return ((await res.json()) as { token: string }).token;
   }
@@ -91,13 +74,7 @@ describe('valve records, quick tests and nominal curves, end to end', () => {
     return (await res.json()) as T;
   }
 
-  async function signIn(page: Page, username: string): Promise<void> {
-    await page.goto(`${stack.url}/sign-in`);
-    await page.getByLabel('User name').fill(username);
-    await page.getByLabel('Password').fill(password(username));
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL('**/bench');
-  }
+  const signIn = (page: Page, username: string) => session.signIn(page, username);
 
   /** Opens a page from the side navigation. */
   async function nav(page: Page, name: string): Promise<void> {
@@ -110,19 +87,8 @@ describe('valve records, quick tests and nominal curves, end to end', () => {
   }
 
   beforeAll(async () => {
-    if (!existsSync(APP_INDEX)) {
-      throw new Error(`${APP_INDEX} is missing: run "npx ng build" (npm run test:e2e does) first`);
-    }
-    dataDir = await mkdtemp(join(tmpdir(), 'emberline-e2e-records-'));
-    stack = await startStack({
-      port: 0,
-      dataDir,
-      speed: SPEED,
-      // Port 0: a mail server of its own, never a running hub's.
-      hubEnv: { DEV_SMTP_PORT: '0' },
-      log: (line) => logs.push(line),
-    });
-    browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+    session = await openE2eSession('records', { speed: SPEED });
+    ({ stack, browser, dataDir, logs } = session);
     // A quick test planned before the tracer names its optional functions would skip parts.
     await until('Bench A to announce its optional functions', async () =>
       logs.some((l) => l.startsWith('[bridge-a]') && l.includes('optional functions: '))
@@ -131,12 +97,7 @@ describe('valve records, quick tests and nominal curves, end to end', () => {
     );
   });
 
-  afterAll(async () => {
-    await browser?.close();
-    await stack?.stop();
-    if (dataDir) await rm(dataDir, { recursive: true, force: true });
-    if (process.env.E2E_LOGS) console.log(logs.join('\n'));
-  });
+  afterAll(() => session?.close());
 
   it('lets a technician add a record, quick-test it on Bench A and read its grade and trend', async () => {
     const page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
