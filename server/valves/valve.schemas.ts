@@ -134,7 +134,11 @@ export const valveDetailSchema = valveViewSchema.extend({
     })
     .describe("The type's reference operating point the figures are taken at"),
   sweeps: z.array(sweepViewSchema).describe('Newest first'),
-  trend: z.array(sweepFiguresSchema).describe('Oldest first, one entry a sweep'),
+  trend: z
+    .array(sweepFiguresSchema)
+    .describe(
+      'Oldest first, one entry a sweep of section 1 (double triodes: section 2 is not in it)',
+    ),
   quickTests: z.array(quickTestSummarySchema).describe('Newest first, at most 200'),
 });
 

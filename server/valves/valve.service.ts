@@ -1,4 +1,5 @@
 import type { z } from 'zod';
+import { sectionOf, type SweepPlan } from '../../shared/domain/sweep';
 import type { AuditService } from '../audit/audit.service';
 import type { AuthUser } from '../auth/auth-user';
 import type { HubDb } from '../db/database';
@@ -131,7 +132,9 @@ export function createValveService({ db, audit, photoFiles }: ValveServiceProps)
       const trend = [];
       for (const s of [...sweeps].reverse()) {
         const figures = await refreshSweepFigures(db, s.id);
-        if (figures) trend.push(toFiguresView(figures, s.created_at));
+        // The trend follows section 1, as the grade does; section 2 is in the sweeps list.
+        const section = sectionOf(JSON.parse(s.plan_json) as SweepPlan);
+        if (figures && section === 1) trend.push(toFiguresView(figures, s.created_at));
       }
       // Refreshing may have changed the grade.
       const fresh = await requireRecord(id);

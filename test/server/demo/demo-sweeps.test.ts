@@ -51,6 +51,21 @@ describe('demo sweeps', () => {
       const sections = own.map((r) => sectionOf(JSON.parse(r.plan_json) as SweepPlan)).sort();
       expect(sections, v.label).toEqual([1, 2]);
     }
+    // The record lists both sweeps; its trend and grade follow section 1.
+    const twin = modelled.find((v) => sectionsOf(v.type) === 2)!;
+    const found = await hub.api
+      .get(`/api/valves?q=${twin.label}`)
+      .set('authorization', `Bearer ${viewer}`)
+      .expect(200);
+    const detail = await hub.api
+      .get(`/api/valves/${found.body.items[0].id}`)
+      .set('authorization', `Bearer ${viewer}`)
+      .expect(200);
+    expect(detail.body.sweeps).toHaveLength(2);
+    expect(detail.body.trend).toHaveLength(1);
+    expect(detail.body.trend[0].sweepId).toBe(
+      detail.body.sweeps.find((s: { plan: SweepPlan }) => sectionOf(s.plan) === 1).id,
+    );
     for (const r of rows) {
       expect(r).toMatchObject({
         status: 'complete',
