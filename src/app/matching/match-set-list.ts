@@ -1,6 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -9,15 +8,9 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
-import { catchError, EMPTY, switchMap, tap } from 'rxjs';
-import { apiErrorMessage } from '../core/api-error-message';
+import { pagedList } from '../shared/paged-list';
 import { SET_STATUS_LABELS } from './match-labels';
-import {
-  MatchSetsApi,
-  type MatchSetPage,
-  type MatchSetStatus,
-  type MatchSetSummary,
-} from './match-sets-api';
+import { MatchSetsApi, type MatchSetStatus, type MatchSetSummary } from './match-sets-api';
 import { MatchSetStatusChip } from './match-set-status-chip';
 
 interface ListQuery {
@@ -136,40 +129,23 @@ export class MatchSetList {
     value: s,
     label: SET_STATUS_LABELS[s],
   }));
-  protected readonly query = signal<ListQuery>({ page: 1, pageSize: 25, status: '' });
-  protected readonly loading = signal(false);
-  protected readonly error = signal<string | null>(null);
-  protected readonly result = signal<MatchSetPage | null>(null);
-  protected readonly rows = computed(() => this.result()?.items ?? []);
-
-  constructor() {
-    toObservable(this.query)
-      .pipe(
-        tap(() => this.loading.set(true)),
-        switchMap((q) =>
-          this.api.list(q.page, q.pageSize, q.status).pipe(
-            catchError((err: unknown) => {
-              this.error.set(apiErrorMessage(err, 'Loading the match sets failed.'));
-              this.loading.set(false);
-              return EMPTY;
-            }),
-          ),
-        ),
-        takeUntilDestroyed(),
-      )
-      .subscribe((page) => {
-        this.loading.set(false);
-        this.error.set(null);
-        this.result.set(page);
-      });
-  }
+  private readonly list = pagedList<ListQuery, MatchSetSummary>(
+    { page: 1, pageSize: 25, status: '' },
+    (q) => this.api.list(q.page, q.pageSize, q.status),
+    'Loading the match sets failed.',
+  );
+  protected readonly query = this.list.query;
+  protected readonly loading = this.list.loading;
+  protected readonly error = this.list.error;
+  protected readonly result = this.list.result;
+  protected readonly rows = this.list.rows;
 
   protected filterStatus(status: MatchSetStatus | ''): void {
-    this.query.update((q) => ({ ...q, status, page: 1 }));
+    this.list.refine({ status });
   }
 
   protected changePage(event: PageEvent): void {
-    this.query.update((q) => ({ ...q, page: event.pageIndex + 1, pageSize: event.pageSize }));
+    this.list.changePage(event);
   }
 
   protected open(set: MatchSetSummary): void {

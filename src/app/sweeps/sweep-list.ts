@@ -1,6 +1,6 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -11,12 +11,12 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSortModule, type Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
-import { catchError, debounceTime, distinctUntilChanged, EMPTY, switchMap, tap } from 'rxjs';
+import { debounceTime, distinctUntilChanged } from 'rxjs';
 import type { SweepStatus } from '../../../shared/domain/sweep';
 import type { SweepView } from '../../../shared/hub/messages';
-import { apiErrorMessage } from '../core/api-error-message';
 import { LiveConnection } from '../core/live-connection';
-import { SweepsApi, type SweepPage, type SweepQuery } from '../core/sweeps-api';
+import { SweepsApi, type SweepQuery } from '../core/sweeps-api';
+import { pagedList } from '../shared/paged-list';
 import { SWEEP_STATUSES, sweepStatusLabel } from './sweep-status-label';
 import { SweepStatusChip } from './sweep-status-chip';
 
@@ -59,19 +59,17 @@ export class SweepList {
   protected readonly statuses = SWEEP_STATUSES.map((s) => ({ value: s, ...sweepStatusLabel(s) }));
   protected readonly pageSizes = [10, 20, 50, 100];
 
-  protected readonly query = signal<SweepQuery>({
-    page: 1,
-    pageSize: 20,
-    sort: 'createdAt',
-    order: 'desc',
-    status: '',
-    q: '',
-  });
+  private readonly list = pagedList<SweepQuery, SweepView>(
+    { page: 1, pageSize: 20, sort: 'createdAt', order: 'desc', status: '', q: '' },
+    (q) => this.api.list(q),
+    'Loading the sweeps failed.',
+  );
+  protected readonly query = this.list.query;
   protected readonly search = new FormControl('', { nonNullable: true });
-  protected readonly loading = signal(false);
-  protected readonly error = signal<string | null>(null);
-  protected readonly result = signal<SweepPage | null>(null);
-  protected readonly rows = computed(() => this.result()?.items ?? []);
+  protected readonly loading = this.list.loading;
+  protected readonly error = this.list.error;
+  protected readonly result = this.list.result;
+  protected readonly rows = this.list.rows;
 
   private readonly benchNames = computed(
     () => new Map((this.live.benches() ?? []).map((b) => [b.id, b.name])),
@@ -80,26 +78,7 @@ export class SweepList {
   constructor() {
     this.search.valueChanges
       .pipe(debounceTime(300), distinctUntilChanged(), takeUntilDestroyed())
-      .subscribe((q) => this.query.update((x) => ({ ...x, q, page: 1 })));
-    toObservable(this.query)
-      .pipe(
-        tap(() => this.loading.set(true)),
-        switchMap((q) =>
-          this.api.list(q).pipe(
-            catchError((err: unknown) => {
-              this.error.set(apiErrorMessage(err, 'Loading the sweeps failed.'));
-              this.loading.set(false);
-              return EMPTY;
-            }),
-          ),
-        ),
-        takeUntilDestroyed(),
-      )
-      .subscribe((page) => {
-        this.loading.set(false);
-        this.error.set(null);
-        this.result.set(page);
-      });
+      .subscribe((q) => this.list.refine({ q }));
   }
 
   protected benchName(id: number): string {
@@ -107,16 +86,16 @@ export class SweepList {
   }
 
   protected changePage(event: PageEvent): void {
-    this.query.update((x) => ({ ...x, page: event.pageIndex + 1, pageSize: event.pageSize }));
+    this.list.changePage(event);
   }
 
   protected changeSort(sort: Sort): void {
     const order = sort.direction || 'desc';
-    this.query.update((x) => ({ ...x, sort: sort.active, order, page: 1 }));
+    this.list.refine({ sort: sort.active, order });
   }
 
   protected changeStatus(status: SweepStatus | ''): void {
-    this.query.update((x) => ({ ...x, status, page: 1 }));
+    this.list.refine({ status });
   }
 
   protected openSweep(sweep: SweepView): void {

@@ -1,6 +1,6 @@
 import { DatePipe, DOCUMENT } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
-import { takeUntilDestroyed, toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -13,13 +13,14 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSortModule, type Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
-import { catchError, debounceTime, distinctUntilChanged, EMPTY, of, switchMap, tap } from 'rxjs';
+import { catchError, debounceTime, distinctUntilChanged, of } from 'rxjs';
 import { HARD_FAILS } from '../../../shared/grading/grade-quick-test';
 import { VALVE_GRADES } from '../../../shared/grading/grade-thresholds';
 import { apiErrorMessage } from '../core/api-error-message';
 import { Auth } from '../core/auth';
 import { dispositionFileName, saveBlob } from '../core/save-blob';
 import { ValveTypesApi } from '../core/valve-types-api';
+import { pagedList } from '../shared/paged-list';
 import { CreateValveDialog } from './create-valve-dialog';
 import { ValveGradeChip } from './valve-grade-chip';
 import { GRADE_LABELS, HARD_FAIL_LABELS, STATUS_LABELS } from './valve-labels';
@@ -27,7 +28,6 @@ import {
   VALVE_STATUSES,
   ValvesApi,
   type ValveImportReport,
-  type ValvePage,
   type ValveQuery,
   type ValveView,
 } from './valves-api';
@@ -84,22 +84,27 @@ export class ValveList {
     { initialValue: [] },
   );
 
-  protected readonly query = signal<ValveQuery>({
-    page: 1,
-    pageSize: 25,
-    sort: 'label',
-    order: 'asc',
-    type: '',
-    status: '',
-    grade: '',
-    location: '',
-    q: '',
-  });
+  private readonly list = pagedList<ValveQuery, ValveView>(
+    {
+      page: 1,
+      pageSize: 25,
+      sort: 'label',
+      order: 'asc',
+      type: '',
+      status: '',
+      grade: '',
+      location: '',
+      q: '',
+    },
+    (q) => this.api.list(q),
+    'Loading the valve records failed.',
+  );
+  protected readonly query = this.list.query;
   protected readonly search = new FormControl('', { nonNullable: true });
   protected readonly locationFilter = new FormControl('', { nonNullable: true });
-  protected readonly loading = signal(false);
-  protected readonly error = signal<string | null>(null);
-  protected readonly result = signal<ValvePage | null>(null);
+  protected readonly loading = this.list.loading;
+  protected readonly error = this.list.error;
+  protected readonly result = this.list.result;
   protected readonly rows = computed(() => this.result()?.items ?? []);
   protected readonly importReport = signal<ValveImportReport | null>(null);
   protected readonly busy = signal<'export' | 'import' | null>(null);
@@ -107,29 +112,10 @@ export class ValveList {
   constructor() {
     this.search.valueChanges
       .pipe(debounceTime(300), distinctUntilChanged(), takeUntilDestroyed())
-      .subscribe((q) => this.query.update((x) => ({ ...x, q, page: 1 })));
+      .subscribe((q) => this.list.refine({ q }));
     this.locationFilter.valueChanges
       .pipe(debounceTime(300), distinctUntilChanged(), takeUntilDestroyed())
-      .subscribe((location) => this.query.update((x) => ({ ...x, location, page: 1 })));
-    toObservable(this.query)
-      .pipe(
-        tap(() => this.loading.set(true)),
-        switchMap((q) =>
-          this.api.list(q).pipe(
-            catchError((err: unknown) => {
-              this.error.set(apiErrorMessage(err, 'Loading the valve records failed.'));
-              this.loading.set(false);
-              return EMPTY;
-            }),
-          ),
-        ),
-        takeUntilDestroyed(),
-      )
-      .subscribe((page) => {
-        this.loading.set(false);
-        this.error.set(null);
-        this.result.set(page);
-      });
+      .subscribe((location) => this.list.refine({ location }));
   }
 
   protected statusLabel(valve: ValveView): string {
@@ -137,16 +123,16 @@ export class ValveList {
   }
 
   protected changePage(event: PageEvent): void {
-    this.query.update((x) => ({ ...x, page: event.pageIndex + 1, pageSize: event.pageSize }));
+    this.list.changePage(event);
   }
 
   protected changeSort(sort: Sort): void {
     const order = sort.direction || 'asc';
-    this.query.update((x) => ({ ...x, sort: sort.active as ValveQuery['sort'], order, page: 1 }));
+    this.list.refine({ sort: sort.active as ValveQuery['sort'], order });
   }
 
   protected filterBy(key: 'type' | 'status' | 'grade', value: string): void {
-    this.query.update((x) => ({ ...x, [key]: value, page: 1 }));
+    this.list.refine({ [key]: value });
   }
 
   protected openValve(valve: ValveView): void {
