@@ -80,7 +80,8 @@ describe('ValveFamily', () => {
     fixture.detectChanges();
     await fixture.whenStable();
     http.expectOne('/api/valve-types/12AX7/nominal-curves').flush(stored);
-    const newest = sweeps.find((s) => s.plan.kind === 'anode' && s.pointCount > 0);
+    const families = sweeps.filter((s) => s.plan.kind === 'anode' && s.pointCount > 0);
+    const newest = families.find((s) => s.plan.section !== 2) ?? families[0];
     if (newest) http.expectOne(`/api/sweeps/${newest.id}`).flush({ ...newest, points: POINTS });
     await fixture.whenStable();
   }
@@ -144,6 +145,17 @@ describe('ValveFamily', () => {
     http.expectOne('/api/sweeps/40').flush({ ...sweepView({ id: 40, ...FAMILY }), points: POINTS });
     await fixture.whenStable();
     expect(element().textContent).toContain('Sweep #40 of');
+  });
+
+  it('shows section 1 of a double triode first, and labels section 2 in the choice', async () => {
+    const second = sweepView({ id: 51, ...FAMILY, plan: { ...FAMILY.plan, section: 2 } });
+    await render([second, sweepView({ id: 50, ...FAMILY })]);
+    expect(element().textContent).toContain('Sweep #50 of');
+    const select = await TestbedHarnessEnvironment.loader(fixture).getHarness(MatSelectHarness);
+    await select.open();
+    const texts = await Promise.all((await select.getOptions()).map((o) => o.getText()));
+    expect(texts[0]).toContain('section 2');
+    expect(texts[1]).not.toContain('section 2');
   });
 
   it('says what to do when the valve has no anode family yet', async () => {

@@ -62,8 +62,14 @@ export class ValveFamily {
   protected readonly families = computed(() =>
     this.sweeps().filter((s) => s.plan.kind === 'anode' && s.pointCount > 0),
   );
-  /** The sweep shown: the newest family until the user picks another. */
-  protected readonly chosenId = linkedSignal(() => this.families()[0]?.id ?? null);
+  /**
+   * The sweep shown: the newest family of section 1 (the section the grade and trend follow),
+   * else the newest of any, until the user picks another.
+   */
+  protected readonly chosenId = linkedSignal(() => {
+    const all = this.families();
+    return (all.find((s) => s.plan.section !== 2) ?? all[0])?.id ?? null;
+  });
   protected readonly showNominal = signal(true);
   protected readonly loaded = signal<Loaded | null>(null);
   protected readonly stored = signal<NominalCurves | null>(null);
