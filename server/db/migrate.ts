@@ -3,6 +3,7 @@ import * as initial from '../../migrations/2026-12-01-initial';
 import * as matchSets from '../../migrations/2026-12-05-match-sets';
 import * as quickTests from '../../migrations/2026-12-04-quick-tests';
 import * as quickTestPercent from '../../migrations/2026-12-06-quick-test-percent';
+import * as figuresExtension from '../../migrations/2026-12-07-figures-extension';
 import * as typeLibrary from '../../migrations/2026-12-02-type-library';
 import * as valveRecords from '../../migrations/2026-12-03-valve-records';
 import { loadConfig } from '../config';
@@ -20,6 +21,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '2026-12-04-quick-tests': quickTests,
   '2026-12-05-match-sets': matchSets,
   '2026-12-06-quick-test-percent': quickTestPercent,
+  '2026-12-07-figures-extension': figuresExtension,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => MIGRATIONS };

@@ -9,7 +9,8 @@ import { listFigures, upsertFigures, type SweepFiguresRow } from './sweep-figure
 /**
  * Brings the stored figures of a sweep up to date: computed for a sweep that has ended and is
  * on a valve record, at the reference point of the valve's type. Figures already computed from
- * the same points at the same reference point are kept. Returns the row, or null when the
+ * the same points at the same reference point are kept (and those from before the analysis
+ * carried cut curves on, extended_volts null, are computed again). Returns the row, or null when the
  * sweep has no figures (still running, or on no record).
  */
 export async function refreshSweepFigures(
@@ -29,6 +30,7 @@ export async function refreshSweepFigures(
   const [stored] = await listFigures(db, [sweepId]);
   if (
     stored &&
+    stored.extended_volts !== null &&
     stored.point_count === sweep.point_count &&
     stored.va_volts === reference.vaVolts &&
     stored.vg1_volts === reference.vg1Volts &&

@@ -33,6 +33,7 @@ export async function upsertFigures(
     ia_percent: f.iaPercent,
     gm_percent: f.gmPercent,
     refusal: f.refusal,
+    extended_volts: f.extendedVolts,
     computed_at: new Date().toISOString(),
   };
   await db

@@ -21,6 +21,11 @@ export interface SweepFigures {
   gmPercent: number | null;
   /** Why there are no measured figures, or null. */
   refusal: string | null;
+  /**
+   * How far a curve next to the point was carried past its last reading to reach it (a curve
+   * the sweep cut at its dissipation or current limit), V; 0 when none was.
+   */
+  extendedVolts: number;
 }
 
 /** How far the sweep's screen voltage may be from the reference point's: 2 V or 2 %. */
@@ -59,6 +64,7 @@ export function computeSweepFigures(
     iaPercent: null,
     gmPercent: null,
     refusal: reason,
+    extendedVolts: 0,
   });
   if (plan.kind !== 'anode') return refused('figures are taken from anode-family sweeps only');
   if (
@@ -87,5 +93,6 @@ export function computeSweepFigures(
     iaPercent: percent(ia, reference.iaMilliamps),
     gmPercent: percent(gm, reference.gmMicrosiemens),
     refusal: null,
+    extendedVolts: op.extendedVolts,
   };
 }

@@ -54,5 +54,6 @@ export function toFiguresView(f: SweepFiguresRow, at: string): SweepFiguresView 
     iaPercent: sig(f.ia_percent),
     gmPercent: sig(f.gm_percent),
     refusal: f.refusal,
+    extendedVolts: f.extended_volts ?? 0,
   };
 }

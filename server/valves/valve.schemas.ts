@@ -120,6 +120,9 @@ export const sweepFiguresSchema = z.object({
   iaPercent: z.number().nullable(),
   gmPercent: z.number().nullable(),
   refusal: z.string().nullable().describe('Why there are no figures for this sweep'),
+  extendedVolts: z
+    .number()
+    .describe('How far a cut curve was carried past its last reading to the point, V (0: none)'),
 });
 
 /** Answer of GET /api/valves/:id. */

@@ -39,5 +39,7 @@ export interface SweepFiguresTable {
   ia_percent: number | null;
   gm_percent: number | null;
   refusal: string | null;
+  /** How far a cut curve was carried to the point, V (0: none); null before it was kept. */
+  extended_volts: number | null;
   computed_at: string;
 }

@@ -64,6 +64,23 @@ describe('figuresAtOperatingPoints', () => {
     expect(outside.refusal).toMatch(/600/);
   });
 
+  it('carries a curve the sweep cut short on to the point, and says by how much', () => {
+    // The -1 V curve stops at 240 V, as at a current limit; the point lies between it and -1.25 V.
+    const cut = POINTS.filter((p) => !(p.vg1Volts === -1 && p.vaVolts > 240));
+    const [carried] = figuresAtOperatingPoints(
+      [point({ vg1Volts: -1.1 })],
+      CHILD_LANGMUIR_PLAN,
+      cut,
+    );
+    expect(carried.refusal).toBeNull();
+    expect(carried.extendedVolts).toBeCloseTo(10, 6);
+    const exact = childLangmuirFigures(WORKED_K, 100, 250, -1.1);
+    const ia = carried.figures.find((f) => f.figure === 'Ia')!.measured!;
+    expect(Math.abs(ia / exact.iaMilliamps - 1)).toBeLessThan(0.01);
+    const [inside] = figuresAtOperatingPoints([point({})], CHILD_LANGMUIR_PLAN, POINTS);
+    expect(inside.extendedVolts).toBe(0);
+  });
+
   it('refuses a point whose screen voltage the sweep did not run', () => {
     const pentodePlan = { ...CHILD_LANGMUIR_PLAN, vg2Volts: 200 };
     const [screen] = figuresAtOperatingPoints([point({ vg2Volts: 250 })], pentodePlan, POINTS);

@@ -20,6 +20,8 @@ export interface OperatingPointFigures {
   figures: FigureComparison[];
   /** Why there are no figures, or null. */
   refusal: string | null;
+  /** How far a cut curve was carried past its last reading to the point, V (0: none). */
+  extendedVolts: number;
 }
 
 /** How far a sweep's screen voltage may be from an operating point's: 2 V or 2 %, V. */
@@ -52,6 +54,7 @@ export function figuresAtOperatingPoints(
     point,
     figures: [],
     refusal,
+    extendedVolts: 0,
   });
   if (plan.kind !== 'anode') {
     return operatingPoints.map((p) => refused(p, 'figures come from anode-family sweeps only'));
@@ -78,6 +81,7 @@ export function figuresAtOperatingPoints(
     return {
       point,
       refusal: null,
+      extendedVolts: op.extendedVolts,
       figures: [
         {
           figure: 'Ia',

@@ -10,6 +10,17 @@ describe('recordGrade', () => {
     });
   });
 
+  it('says when the graded figures needed a cut curve carried on to the point', () => {
+    const detail = valveDetail();
+    const trend = detail.trend.map((f, i, all) =>
+      i === all.length - 1 ? { ...f, extendedVolts: 11.6 } : f,
+    );
+    expect(recordGrade({ ...detail, trend }).reason).toBe(
+      "gm 64 % of nominal at 250 V / -2 V; a neighbouring curve stopped at the sweep's limit " +
+        'and was carried 12 V on to the point',
+    );
+  });
+
   it("gives the quick test's own reason when the hub graded by it", () => {
     const older = quickTestSummary({ id: 4, at: '2026-11-20T10:00:00Z', reason: 'older' });
     const valve = valveDetail({

@@ -33,8 +33,13 @@ export function recordGrade(valve: ValveDetail): RecordGrade {
   }
   const figures = latestFigures(valve.trend);
   if (valve.gradeSource === 'sweep' && figures) {
+    const carried =
+      figures.extendedVolts > 0
+        ? `; a neighbouring curve stopped at the sweep's limit and was carried ` +
+          `${Math.round(figures.extendedVolts)} V on to the point`
+        : '';
     return {
-      reason: gradeReason(valve.trend, valve.referencePoint, valve.percentOfNominal),
+      reason: gradeReason(valve.trend, valve.referencePoint, valve.percentOfNominal) + carried,
       from: { source: 'sweep', id: figures.sweepId, at: figures.at },
     };
   }

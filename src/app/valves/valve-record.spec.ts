@@ -236,6 +236,7 @@ describe('gradeReason', () => {
     iaPercent: 70,
     gmPercent: 82,
     refusal: null,
+    extendedVolts: 0,
   };
 
   it("names Ia when the grade's percentage is Ia's, with the screen voltage", () => {

@@ -69,6 +69,7 @@ export function sweepFigures(over: Partial<SweepFigures> = {}): SweepFigures {
     iaPercent: 92,
     gmPercent: 94,
     refusal: null,
+    extendedVolts: 0,
     ...over,
   };
 }

@@ -67,6 +67,8 @@ export interface SweepFigures {
   gmPercent: number | null;
   /** Why there are no figures for this sweep. */
   refusal: string | null;
+  /** How far a cut curve was carried past its last reading to the point, V (0: none). */
+  extendedVolts: number;
 }
 
 /** The reference operating point of a type: V, mA, µS. */

@@ -188,6 +188,23 @@ describe('sweeps on valve records', () => {
     // The short sweep before it covers no reference point: in the trend, with the reason.
     expect(detail.trend[0].refusal).toEqual(expect.any(String));
     expect(detail.trend[0].iaMilliamps).toBeNull();
+    // The 12AX7's curves reach 250 V on both sides of -2 V: nothing was carried on.
+    expect(last.extendedVolts).toBe(0);
+
+    // Figures stored before cut curves were carried on (extended_volts null) are computed again.
+    await hub.services.db
+      .updateTable('sweep_figures')
+      .set({ extended_volts: null, computed_at: '2000-01-01T00:00:00.000Z' })
+      .where('sweep_id', '=', id)
+      .execute();
+    await as(viewer).get(`/api/valves/${valveA}`).expect(200);
+    const again = await hub.services.db
+      .selectFrom('sweep_figures')
+      .select(['extended_volts', 'computed_at'])
+      .where('sweep_id', '=', id)
+      .executeTakeFirstOrThrow();
+    expect(again.extended_volts).toBe(0);
+    expect(again.computed_at > '2000-01-01T00:00:00.000Z').toBe(true);
   });
 
   it('grades by the thresholds in force, in the list and its filter', async () => {
