@@ -52,10 +52,11 @@ const MAX_TRIES = 200;
  * A reading past the trip would have ended the run with 'limit' (some EL34s draw past the
  * default plan's trip current on the Vg1 = 0 curve): such an individual is passed over for the
  * next one, so each demo sweep is one a tracer could have completed. Individuals whose curves
- * next to the type's reference point stop at the plan's dissipation limit before reaching it
- * (strong 12AU7s, EL34s and 6L6GCs: their reference points sit at or near the anode rating)
- * leave a record without figures; the demo prefers the next individual that reaches the point,
- * so that every demo valve has a grade, and keeps the first complete one where none does.
+ * next to the type's reference point stop at the plan's dissipation limit too far short of it
+ * for the analysis to carry them on (more than 15 % of Va; strong EL34s and 6L6GCs, whose
+ * reference points sit at the anode rating) leave a record without figures; the demo prefers
+ * the next individual whose figures it gets, so that every demo valve has a grade, and keeps
+ * the first complete one where none does.
  */
 function completeSweep(index: number): { spec: string; sweep: DemoSweep } | null {
   const [type, seedText] = demoSweepValveSpec(index).split('#');
